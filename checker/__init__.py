@@ -1,0 +1,1 @@
+"""assay: an independent checker for first-order resolution proofs."""

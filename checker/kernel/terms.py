@@ -1,0 +1,171 @@
+"""First-order terms, hash-consed so that equal terms are the same object.
+
+One object per distinct term makes equality an identity test and hashing
+O(1), which is what keeps substitution and comparison cheap on large
+certificates.  Every traversal here is iterative: prover output can nest
+terms far deeper than Python's recursion limit.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+
+Position = tuple[int, ...]
+"""A path into a term: 1-based argument indices, root is ``()``."""
+
+
+class Term:
+    """A variable or a function/constant application; build with
+    :func:`variable` or :func:`application`, never directly."""
+
+    __slots__ = ("symbol", "arguments", "is_variable", "ground", "__weakref__")
+
+    symbol: str
+    arguments: tuple[Term, ...]
+    is_variable: bool
+    ground: bool
+
+    def __reduce__(self):
+        if self.is_variable:
+            return (variable, (self.symbol,))
+        return (application, (self.symbol, self.arguments))
+
+    def __repr__(self) -> str:
+        return f"Term({render(self)!r})"
+
+    def __str__(self) -> str:
+        return render(self)
+
+    @property
+    def arity(self) -> int:
+        return len(self.arguments)
+
+
+_table: dict[tuple, Term] = {}
+
+
+def _make(key: tuple, symbol: str, arguments: tuple, is_variable: bool) -> Term:
+    term = object.__new__(Term)
+    term.symbol = symbol
+    term.arguments = arguments
+    term.is_variable = is_variable
+    term.ground = not is_variable and all(a.ground for a in arguments)
+    _table[key] = term
+    return term
+
+
+def variable(name: str) -> Term:
+    """The variable called ``name``."""
+    key = (True, name)
+    term = _table.get(key)
+    return term if term is not None else _make(key, name, (), True)
+
+
+def application(symbol: str, arguments: tuple[Term, ...] = ()) -> Term:
+    """The term ``symbol(arguments...)``; a constant when there are none."""
+    arguments = tuple(arguments)
+    key = (False, symbol, arguments)
+    term = _table.get(key)
+    return term if term is not None else _make(key, symbol, arguments, False)
+
+
+def subterms(term: Term) -> Iterator[tuple[Position, Term]]:
+    """Every subterm with its position, outermost first, left to right."""
+    stack: list[tuple[Position, Term]] = [((), term)]
+    while stack:
+        position, current = stack.pop()
+        yield position, current
+        for index in range(current.arity, 0, -1):
+            stack.append((position + (index,), current.arguments[index - 1]))
+
+
+def subterm_at(term: Term, position: Position) -> Term | None:
+    """The subterm at ``position``, or None if the term has no such position."""
+    current = term
+    for index in position:
+        if not 1 <= index <= current.arity:
+            return None
+        current = current.arguments[index - 1]
+    return current
+
+
+def replace_at(term: Term, position: Position, replacement: Term) -> Term:
+    """``term`` with the subterm at ``position`` replaced; the position must exist."""
+    path = []
+    current = term
+    for index in position:
+        path.append((current, index))
+        current = current.arguments[index - 1]
+    result = replacement
+    for parent, index in reversed(path):
+        arguments = list(parent.arguments)
+        arguments[index - 1] = result
+        result = application(parent.symbol, tuple(arguments))
+    return result
+
+
+def variables_of(term: Term) -> set[Term]:
+    """The variables occurring in ``term``."""
+    found: set[Term] = set()
+    seen: set[Term] = set()
+    stack = [term]
+    while stack:
+        current = stack.pop()
+        if current.ground or current in seen:
+            continue
+        seen.add(current)
+        if current.is_variable:
+            found.add(current)
+        else:
+            stack.extend(current.arguments)
+    return found
+
+
+def symbols_of(term: Term) -> set[tuple[str, int]]:
+    """The function and constant symbols of ``term``, as (name, arity)."""
+    found: set[tuple[str, int]] = set()
+    seen: set[Term] = set()
+    stack = [term]
+    while stack:
+        current = stack.pop()
+        if current in seen or current.is_variable:
+            continue
+        seen.add(current)
+        found.add((current.symbol, current.arity))
+        stack.extend(current.arguments)
+    return found
+
+
+def render(term: Term) -> str:
+    """The term in TPTP syntax."""
+    parts: list[str] = []
+    stack: list[Term | str] = [term]
+    while stack:
+        item = stack.pop()
+        if isinstance(item, str):
+            parts.append(item)
+        elif not item.arguments:
+            parts.append(item.symbol)
+        else:
+            parts.append(item.symbol + "(")
+            stack.append(")")
+            for index in range(item.arity - 1, -1, -1):
+                stack.append(item.arguments[index])
+                if index:
+                    stack.append(",")
+    return "".join(parts)
+
+
+def first_difference(left: Term, right: Term) -> tuple[Position, Term, Term] | None:
+    """The outermost-leftmost position where two terms differ, with the two
+    subterms found there; None when they are the same term."""
+    stack: list[tuple[Position, Term, Term]] = [((), left, right)]
+    while stack:
+        position, a, b = stack.pop()
+        if a is b:
+            continue
+        if a.is_variable or b.is_variable or a.symbol != b.symbol or a.arity != b.arity:
+            return position, a, b
+        for index in range(a.arity, 0, -1):
+            stack.append((position + (index,), a.arguments[index - 1], b.arguments[index - 1]))
+    return None
