@@ -1,0 +1,66 @@
+"""The ``assay`` command line: thin commands over the Python API."""
+
+from __future__ import annotations
+
+import sys
+import traceback
+
+import click
+
+from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
+from checker.report import SAFETY_NOTE, render_json, render_text
+from checker.run import check
+from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+
+
+class _Group(click.Group):
+    """Usage errors exit with the code for bad usage, and internal errors
+    with their own code, never with a Python traceback on screen."""
+
+    def main(self, *args, **kwargs):  # noqa: D401 - click entry point
+        kwargs["standalone_mode"] = False
+        try:
+            return super().main(*args, **kwargs)
+        except click.exceptions.Exit as done:
+            sys.exit(done.exit_code)
+        except click.ClickException as error:
+            error.show()
+            sys.exit(EXIT_USAGE)
+        except click.exceptions.Abort:
+            sys.exit(EXIT_USAGE)
+        except SystemExit:
+            raise
+        except BaseException:  # noqa: BLE001 - report, never crash
+            click.echo("assay: internal error (please report):", err=True)
+            click.echo(traceback.format_exc(limit=-3), err=True)
+            sys.exit(EXIT_CODES[INTERNAL_ERROR])
+
+
+@click.group(cls=_Group)
+@click.version_option(package_name="assay")
+def main() -> None:
+    """assay: an independent checker for first-order resolution proofs."""
+
+
+@main.command("check")
+@click.argument("certificates", nargs=-1, required=True, type=click.Path(dir_okay=False))
+@click.option("--problem", "problem", type=click.Path(dir_okay=False), help="The TPTP problem the derivation refutes.")
+@click.option("--include-dir", "include_dirs", multiple=True, type=click.Path(file_okay=False),
+              help="Where to look for include(...) files (also $TPTP).")
+@click.option("--report", "report_format", type=click.Choice(["text", "json"]), default="text", show_default=True)
+@click.option("--all-steps", is_flag=True, help="List every step in the text report, not only the first failure.")
+@click.option("--search-limit", type=click.IntRange(min=1), default=DEFAULT_LIMITS.scale, show_default=True,
+              help="Bound on the evidence search per step (a count, not a time).")
+def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limit) -> None:
+    """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
+    certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
+    4 internal error (for a batch: the worst)."""
+    limits = SearchLimits.scaled(search_limit)
+    reports: list[Report] = [check(path, problem, include_dirs, limits) for path in certificates]
+    if report_format == "json":
+        click.echo(render_json(reports))
+    else:
+        for report in reports:
+            click.echo(render_text(report, verbose=all_steps))
+        click.echo(SAFETY_NOTE)
+    sys.exit(EXIT_CODES[worst([report.verdict for report in reports])])

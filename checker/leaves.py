@@ -1,0 +1,84 @@
+"""Linking the leaves of a derivation to the problem it claims to refute.
+
+A derivation that may state its own axioms proves nothing: every leaf must
+be a statement of the problem (by name and by content, up to renaming of
+variables), a theory axiom or tautology the kernel can confirm, or it is
+``failed`` as "not in the problem".  With no problem at all, leaves are
+taken as assumptions and reported as such.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from checker.kernel.clauses import Clause
+from checker.kernel.formulas import Formula, alpha_equivalent
+from checker.kernel.rules import check_conclusion
+from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
+from checker.plan import Step
+from checker.search.reconstruct import SearchLimits, reconstruct
+from checker.search.subsumption import find_theta
+from formats.derivation import Document, Origin, Statement
+
+AXIOM_ROLES = frozenset(
+    {"axiom", "hypothesis", "definition", "assumption", "lemma", "theorem", "corollary", "plain", "unknown"}
+)
+CONJECTURE_ROLES = frozenset({"conjecture", "negated_conjecture"})
+
+
+def same_content(problem_content: Clause | Formula, leaf_content: Clause | Formula) -> bool:
+    """Whether the leaf states the problem statement (or a weakening of a
+    clause): formulas up to alpha-equivalence, clauses by a kernel-checked
+    theta(problem clause) ⊆ leaf clause."""
+    if isinstance(problem_content, Formula) and isinstance(leaf_content, Formula):
+        return alpha_equivalent(problem_content, leaf_content)
+    if isinstance(problem_content, Clause) and isinstance(leaf_content, Clause):
+        theta = find_theta(problem_content, leaf_content)
+        return theta is not None and check_conclusion(problem_content, leaf_content, theta) is None
+    return False
+
+
+def check_leaf(step: Step, problem: Document | None, limits: SearchLimits) -> StepResult:
+    """The outcome of a leaf: which problem statement it is, or why it is none."""
+    statement = step.statement
+    assert statement is not None
+    origin = statement.source if isinstance(statement.source, Origin) else Origin("unknown")
+    if origin.kind in ("theory", "introduced") and origin.detail[:1] != ("definition",):
+        return _check_valid_clause(step, statement, origin, limits)
+    if problem is None:
+        return StepResult(step.name, ASSUMED, "leaf", "taken as given: no problem to check it against", step.location)
+    cited = origin.detail[1] if origin.kind == "file" and len(origin.detail) > 1 and origin.detail[1] else statement.name
+    candidates = _by_name_first(problem.statements, cited)
+    for candidate in candidates:
+        if same_content(candidate.content, statement.content):
+            if candidate.role in CONJECTURE_ROLES and statement.role not in CONJECTURE_ROLES:
+                return StepResult(
+                    step.name, FAILED, "leaf",
+                    f"states the problem's {candidate.role} `{candidate.name}` as if it were an axiom",
+                    step.location,
+                )
+            how = "" if candidate.name == cited else f" (cited as `{cited}`)"
+            return StepResult(
+                step.name, CHECKED, "leaf", f"{candidate.role} `{candidate.name}` of the problem{how}", step.location
+            )
+    named = [c for c in problem.statements if c.name == cited]
+    hint = f"; the problem's `{cited}` is `{named[0].content}`" if named else ""
+    return StepResult(step.name, FAILED, "leaf", f"not in the problem: `{statement.content}`{hint}", step.location)
+
+
+def _by_name_first(statements: Sequence[Statement], name: str) -> list[Statement]:
+    named = [s for s in statements if s.name == name]
+    return named + [s for s in statements if s.name != name]
+
+
+def _check_valid_clause(step: Step, statement: Statement, origin: Origin, limits: SearchLimits) -> StepResult:
+    """A theory axiom or tautology needs no problem: the kernel replays a
+    refutation of its negation from nothing (equality axioms included)."""
+    claimed = statement.content
+    kind = " ".join((origin.kind, *origin.detail[:1]))
+    if not isinstance(claimed, Clause):
+        return StepResult(step.name, UNPROVEN, kind, "no check for an introduced formula of this kind", step.location)
+    found = reconstruct([], claimed, rule_hint=kind, limits=limits)
+    if found.evidence is not None:
+        return StepResult(step.name, RECONSTRUCTED, kind, "valid clause: its negation is refuted from no premises", step.location)
+    return StepResult(step.name, UNPROVEN, kind, "not shown valid within the search bounds", step.location)

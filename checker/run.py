@@ -1,0 +1,115 @@
+"""Checking a whole certificate: read, plan, check every step, add it up.
+
+This is the public entry point (``checker.check``).  It never raises for
+bad input: an unreadable file gives an ``unreadable`` report with the
+place where reading stopped, and an unexpected error inside assay gives an
+``internal_error`` report, never an accepted one.
+"""
+
+from __future__ import annotations
+
+import os
+import traceback
+from collections.abc import Sequence
+
+from checker.kernel.clauses import Clause
+from checker.kernel.formulas import FALSUM
+from checker.leaves import check_leaf
+from checker.outcomes import (
+    ACCEPTED,
+    FAILED,
+    INTERNAL_ERROR,
+    REJECTED,
+    UNREADABLE,
+    Report,
+    StepResult,
+    verdict_of,
+)
+from checker.plan import make_plan
+from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+from checker.steps import StepContext, check_inference
+from formats.derivation import Document, UnreadableInput
+from formats.native import read_native
+from formats.tptp import read_tptp
+
+NO_PROBLEM_CAUTION = (
+    "no problem was given: the leaves were taken as assumptions, so this shows only that "
+    "the conclusion follows from them, not from the problem's axioms"
+)
+
+
+def read_document(path: str, include_dirs: Sequence[str] = ()) -> Document:
+    """Read a native certificate (JSON Lines) or a TPTP file, by content."""
+    with open(path, encoding="utf-8") as handle:
+        start = handle.read(4096).lstrip()
+    if path.endswith(".jsonl") or start.startswith("{"):
+        return read_native(path)
+    return read_tptp(path, include_dirs)
+
+
+def check(
+    path: str,
+    problem: str | None = None,
+    include_dirs: Sequence[str] = (),
+    limits: SearchLimits = DEFAULT_LIMITS,
+) -> Report:
+    """Check the certificate at ``path``, against the problem file if given."""
+    try:
+        return _check(path, problem, tuple(include_dirs), limits)
+    except UnreadableInput as error:
+        text = f"{error.location}: {error.message}"
+        if error.excerpt:
+            text += "\n" + error.excerpt
+        return Report(path, UNREADABLE, problem=problem, error=text)
+    except OSError as error:
+        return Report(path, UNREADABLE, problem=problem, error=f"{path}: cannot read: {error.strerror or error}")
+    except Exception:  # noqa: BLE001 - a bug must never turn into a verdict
+        return Report(path, INTERNAL_ERROR, problem=problem, error="internal error:\n" + traceback.format_exc())
+
+
+def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
+    from_environment = os.environ.get("TPTP")
+    return include_dirs + ((from_environment,) if from_environment else ())
+
+
+def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], limits: SearchLimits) -> Report:
+    include_dirs = _include_dirs(include_dirs)
+    document = read_document(path, include_dirs)
+    problem = read_tptp(problem_path, include_dirs) if problem_path else None
+    plan = make_plan(document)
+    context = StepContext(limits=limits)
+    contents = {statement.name: statement.content for statement in document.statements}
+    results: list[StepResult] = []
+    for step in plan.steps:
+        if step.name in plan.faults:
+            results.append(plan.faults[step.name])
+        elif step.is_leaf:
+            results.append(check_leaf(step, problem, limits))
+        else:
+            premises = [contents.get(name) for name in step.parents]
+            results.append(check_inference(step, premises, context))
+        results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
+    results.extend(_whole_derivation(document))
+    verdict = verdict_of(results)
+    cautions = (NO_PROBLEM_CAUTION,) if problem is None and verdict == ACCEPTED else ()
+    return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=cautions)
+
+
+def _whole_derivation(document: Document) -> list[StepResult]:
+    """The derivation must reach the empty clause (a refutation)."""
+    for statement in document.statements:
+        content = statement.content
+        if (isinstance(content, Clause) and content.is_empty) or content is FALSUM:
+            return []
+    return [
+        StepResult(
+            "(derivation)",
+            FAILED,
+            "refutation",
+            "the derivation never reaches the empty clause (`$false`)",
+            None,
+        )
+    ]
+
+
+__all__ = ["check", "read_document", "Report", "REJECTED"]
