@@ -2,11 +2,13 @@
 
 from __future__ import annotations
 
+import json
 import sys
 import traceback
 
 import click
 
+from checker.record import check_record
 from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
 from checker.report import SAFETY_NOTE, render_json, render_text
 from checker.run import check
@@ -51,12 +53,17 @@ def main() -> None:
 @click.option("--all-steps", is_flag=True, help="List every step in the text report, not only the first failure.")
 @click.option("--search-limit", type=click.IntRange(min=1), default=DEFAULT_LIMITS.scale, show_default=True,
               help="Bound on the evidence search per step (a count, not a time).")
-def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limit) -> None:
+@click.option("--record", "record_path", type=click.Path(dir_okay=False, writable=True),
+              help="Also write a check record (JSON with file hashes and scope statement) for a safety case.")
+def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limit, record_path) -> None:
     """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
     limits = SearchLimits.scaled(search_limit)
     reports: list[Report] = [check(path, problem, include_dirs, limits) for path in certificates]
+    if record_path:
+        with open(record_path, "w", encoding="utf-8") as out:
+            json.dump(check_record(reports, search_limit), out, indent=2)
     if report_format == "json":
         click.echo(render_json(reports))
     else:

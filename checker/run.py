@@ -14,6 +14,8 @@ from collections.abc import Sequence
 
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import FALSUM
+from checker.formula_steps import check_definition_leaf
+from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.outcomes import (
     ACCEPTED,
@@ -28,7 +30,7 @@ from checker.outcomes import (
 from checker.plan import make_plan
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.steps import StepContext, check_inference
-from formats.derivation import Document, UnreadableInput
+from formats.derivation import Document, Origin, UnreadableInput
 from formats.native import read_native
 from formats.tptp import read_tptp
 
@@ -77,22 +79,29 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
     document = read_document(path, include_dirs)
     problem = read_tptp(problem_path, include_dirs) if problem_path else None
     plan = make_plan(document)
-    context = StepContext(limits=limits)
-    contents = {statement.name: statement.content for statement in document.statements}
+    context = StepContext(limits, build_symbol_table(plan.steps, problem))
+    statements = {statement.name: statement for statement in document.statements}
     results: list[StepResult] = []
     for step in plan.steps:
         if step.name in plan.faults:
             results.append(plan.faults[step.name])
+        elif step.is_leaf and _is_definition(step):
+            results.append(check_definition_leaf(step, context.symbols))
         elif step.is_leaf:
             results.append(check_leaf(step, problem, limits))
         else:
-            premises = [contents.get(name) for name in step.parents]
-            results.append(check_inference(step, premises, context))
+            parents = [statements.get(name) for name in step.parents]
+            results.append(check_inference(step, parents, context))
         results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
     results.extend(_whole_derivation(document))
     verdict = verdict_of(results)
     cautions = (NO_PROBLEM_CAUTION,) if problem is None and verdict == ACCEPTED else ()
     return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=cautions)
+
+
+def _is_definition(step) -> bool:
+    source = step.statement.source
+    return isinstance(source, Origin) and source.kind == "introduced" and source.detail[:1] == ("definition",)
 
 
 def _whole_derivation(document: Document) -> list[StepResult]:

@@ -1,11 +1,11 @@
-"""Checking one step of a planned derivation, given its parents' statements.
+"""Checking one inference step of a planned derivation, given its parents.
 
 A step is judged by its shape and its declared status, never by its rule
-name alone: a step carrying explicit evidence is replayed by the kernel
-(``checked``); a clause step without evidence goes to the untrusted search,
-whose findings the kernel replays (``reconstructed``); when nothing is
-found, the closest candidate is reported (``unproven``), or a counter-model
-the kernel confirmed (``refuted``).
+name alone (the name only reorders the search): a step carrying explicit
+evidence is replayed by the kernel (``checked``); a clause step without
+evidence goes to the untrusted search, whose findings the kernel replays
+(``reconstructed``); formula steps go to :mod:`checker.formula_steps`.
+When nothing is found, the closest candidate is reported (``unproven``).
 """
 
 from __future__ import annotations
@@ -13,58 +13,73 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 
+from checker.formula_steps import as_formula, check_consequence, check_introduction, check_negated_conjecture
+from checker.freshness import SymbolTable, new_symbols
 from checker.kernel.clauses import Clause
-from checker.kernel.failure import Failure
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
 from checker.plan import Step
-from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits, reconstruct
+from checker.search.reconstruct import SearchLimits, reconstruct
+from formats.derivation import Statement
 
-# TPTP statuses under which the conclusion is a logical consequence of the
-# parents (TPTP SZS ontology: thm, and the weaker-claim relatives).
+# TPTP statuses (SZS ontology) under which the conclusion is a logical
+# consequence of the parents.
 CONSEQUENCE_STATUSES = frozenset({"thm", "cth", "tau", "eqv", "tac", "wec", "eth", "wth", "wtc", "wcs"})
 
 
 @dataclass(frozen=True, slots=True)
 class StepContext:
-    """What every step check may consult besides its own premises."""
+    """What every step check may consult besides its own parents."""
 
-    limits: SearchLimits = DEFAULT_LIMITS
-
-
-def describe_rule(step: Step) -> str:
-    return step.inference.rule if step.inference else "leaf"
+    limits: SearchLimits
+    symbols: SymbolTable
 
 
-def check_inference(step: Step, premises: Sequence[Clause | object], context: StepContext) -> StepResult:
-    """The outcome of an inference step whose parents' contents are ``premises``."""
+def _result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
+    assert step.inference is not None
+    return StepResult(step.name, outcome, step.inference.rule, message, step.location, tuple(details))
+
+
+def check_inference(step: Step, parents: Sequence[Statement | None], context: StepContext) -> StepResult:
+    """The outcome of an inference step whose parent statements are ``parents``."""
     inference = step.inference
-    assert inference is not None
-    rule = inference.rule
-    if any(premise is None for premise in premises):
-        return StepResult(step.name, UNPROVEN, rule, "a parent is an intermediate step whose conclusion is not stated", step.location)
-    claimed = step.statement.content if step.statement is not None else None
+    assert inference is not None and step.statement is not None
+    if any(parent is None for parent in parents):
+        return _result(step, UNPROVEN, "a parent is an intermediate step whose conclusion is not stated")
+    claimed = step.statement.content
+    premises = [parent.content for parent in parents]
+    status = inference.status or "thm"
+
+    conjectures = [parent for parent in parents if parent.role == "conjecture"]
+    if conjectures:
+        if status != "cth" and step.statement.role != "negated_conjecture":
+            return _result(
+                step, FAILED,
+                f"uses the conjecture `{conjectures[0].name}` as a premise; only its negation may be used",
+                ("reason: conjecture_as_premise",),
+            )
+        if len(parents) != 1:
+            return _result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
+                           ("reason: negation_parents",))
+        return check_negated_conjecture(step, as_formula(conjectures[0].content), claimed, context.limits)
+
     if inference.evidence is not None:
         if not isinstance(claimed, Clause) or not all(isinstance(p, Clause) for p in premises):
-            return StepResult(step.name, FAILED, rule, "explicit evidence is given for clauses, but this step or a parent is a formula", step.location)
-        failure = check_clause_step(list(premises), claimed, inference.evidence, inference.theta or IDENTITY)
+            return _result(step, FAILED, "explicit evidence is given for clauses, but this step or a parent is a formula")
+        failure = check_clause_step(premises, claimed, inference.evidence, inference.theta or IDENTITY)
         if failure is None:
-            return StepResult(step.name, CHECKED, rule, "kernel replayed the stated evidence", step.location)
-        return _failed(step, rule, failure)
-    status = inference.status or "thm"
+            return _result(step, CHECKED, "kernel replayed the stated evidence")
+        return _result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
+
+    introduces = status not in CONSEQUENCE_STATUSES and new_symbols(claimed, premises)
+    if introduces:
+        formulas = [as_formula(p) for p in premises]
+        return check_introduction(step, formulas, claimed, premises, context.symbols, context.limits)
     if isinstance(claimed, Clause) and all(isinstance(p, Clause) for p in premises):
-        if status not in CONSEQUENCE_STATUSES:
-            return StepResult(
-                step.name, UNPROVEN, rule, f"status `{status}` on a clause step: no check for this kind of step", step.location
-            )
-        found = reconstruct(list(premises), claimed, rule_hint=rule, limits=context.limits, stated=step.bindings)
+        found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
-            return StepResult(step.name, RECONSTRUCTED, rule, f"kernel replayed {found.description}", step.location)
+            return _result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
         details = () if found.closest is None else tuple(found.closest.lines())
-        return StepResult(step.name, UNPROVEN, rule, "no evidence found within the search bounds", step.location, details)
-    return StepResult(step.name, UNPROVEN, rule, "no check for this kind of step", step.location)
-
-
-def _failed(step: Step, rule: str, failure: Failure) -> StepResult:
-    return StepResult(step.name, FAILED, rule, failure.message, step.location, (f"reason: {failure.reason}",))
+        return _result(step, UNPROVEN, "no evidence found within the search bounds", details)
+    return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)

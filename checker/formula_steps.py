@@ -1,0 +1,127 @@
+"""Checking formula-level steps: consequences, Skolemization, definitions,
+and the negated conjecture.
+
+A derivation starts from formulas; a wrong step here (a Skolem function
+that forgot a variable, a reused constant, a dropped negation) silently
+proves anything.  Consequence steps are checked as kernel-replayed
+refutations of clausify(premises ∧ ¬conclusion); steps that introduce new
+symbols must introduce them fresh, as witnesses of quantifiers that
+Skolemization may replace, and are then checked as consequences of the
+premises plus the kernel-built Skolem axioms.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from checker.freshness import SymbolTable, describe_symbol, new_symbols
+from checker.kernel.clauses import Clause
+from checker.kernel.entailment import check_entailment
+from checker.kernel.failure import Failure
+from checker.kernel.formulas import Formula, alpha_equivalent, formula_of_clause, negation, universal_closure
+from checker.kernel.introductions import defined_symbol, skolem_axiom
+from checker.kernel.models import confirm_countermodel, render_countermodel
+from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
+from checker.plan import Step
+from checker.search.entailment import find_entailment
+from checker.search.models import find_countermodel
+from checker.search.reconstruct import SearchLimits
+from checker.search.witnesses import Misfit, propose_witnesses
+
+
+def as_formula(content: Clause | Formula) -> Formula:
+    """A clause as the universal closure of its disjunction; a formula as
+    its universal closure (TPTP leaves free variables universal)."""
+    if isinstance(content, Clause):
+        return formula_of_clause(content)
+    return universal_closure(content)
+
+
+def _result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
+    assert step.inference is not None
+    return StepResult(step.name, outcome, step.inference.rule, message, step.location, tuple(details))
+
+
+def check_consequence(
+    step: Step,
+    premises: Sequence[Formula],
+    conclusion: Formula,
+    limits: SearchLimits,
+    what: str = "follows from its premises",
+) -> StepResult:
+    """premises ⊨ conclusion, by alpha-equivalence or a kernel-replayed
+    refutation; if neither is found, a kernel-confirmed counter-model."""
+    if any(alpha_equivalent(premise, conclusion) for premise in premises):
+        return _result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
+    chain = find_entailment(premises, conclusion, limits)
+    if chain is not None:
+        failure = check_entailment(premises, conclusion, chain)
+        if failure is None:
+            return _result(step, RECONSTRUCTED, f"{what}: kernel replayed a refutation of premises and negated conclusion ({len(chain.steps)} inferences)")
+    model = find_countermodel(list(premises), conclusion, max_domain=limits.model_domain)
+    if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
+        return _result(
+            step,
+            REFUTED,
+            "counter-model: the premises are true and the conclusion false",
+            render_countermodel(model, list(premises), conclusion),
+        )
+    return _result(step, UNPROVEN, f"not shown to follow within the search bounds")
+
+
+def check_introduction(
+    step: Step,
+    premises: Sequence[Formula],
+    claimed: Clause | Formula,
+    raw_premises: Sequence[Clause | Formula],
+    table: SymbolTable,
+    limits: SearchLimits,
+) -> StepResult:
+    """A step with new symbols: fresh, each the witness of a quantifier that
+    Skolemization may replace, and entailed by premises plus Skolem axioms."""
+    new = new_symbols(claimed, raw_premises)
+    not_fresh = table.freshness_failure(step.name, new)
+    if not_fresh:
+        return _result(step, FAILED, not_fresh, ("reason: not_fresh",))
+    conclusion = as_formula(claimed)
+    proposals = propose_witnesses(premises, claimed, new)
+    if isinstance(proposals, Misfit):
+        return _result(step, FAILED, proposals.message, (f"reason: {proposals.reason}",))
+    axioms: list[Formula] = []
+    for proposal in proposals:
+        axiom = skolem_axiom(proposal.quantifier, proposal.witnesses)
+        if isinstance(axiom, Failure):
+            return _result(step, FAILED, axiom.message, (f"reason: {axiom.reason}",))
+        axioms.append(axiom)
+    introduced = ", ".join(describe_symbol(s) for s in sorted(new))
+    return check_consequence(
+        step, [*premises, *axioms], conclusion, limits, what=f"Skolemization introducing {introduced}"
+    )
+
+
+def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
+    """An introduced definition: the right shape, and its symbol fresh."""
+    statement = step.statement
+    assert statement is not None
+    content = statement.content
+    formula = as_formula(content)
+    symbol = defined_symbol(formula)
+    if isinstance(symbol, Failure):
+        return StepResult(step.name, FAILED, "definition", symbol.message, step.location, (f"reason: {symbol.reason}",))
+    not_fresh = table.freshness_failure(step.name, {symbol})
+    if not_fresh:
+        return StepResult(step.name, FAILED, "definition", not_fresh, step.location, ("reason: not_fresh",))
+    return StepResult(step.name, RECONSTRUCTED, "definition", f"defines fresh symbol `{describe_symbol(symbol)}`", step.location)
+
+
+def check_negated_conjecture(
+    step: Step, conjecture: Formula, claimed: Clause | Formula, limits: SearchLimits
+) -> StepResult:
+    """The step states the negation of the conjecture (or a consequence of it)."""
+    negated = negation(universal_closure(conjecture))
+    conclusion = as_formula(claimed)
+    if alpha_equivalent(negated, conclusion) or (
+        isinstance(claimed, Formula) and alpha_equivalent(negation(conjecture), claimed)
+    ):
+        return _result(step, RECONSTRUCTED, "the negation of the conjecture")
+    return check_consequence(step, [negated], conclusion, limits, what="follows from the negated conjecture")

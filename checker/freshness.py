@@ -1,0 +1,113 @@
+"""Where each symbol occurs, for the freshness of introduced symbols.
+
+A Skolem symbol or a defined predicate is sound only if it is new: in no
+problem formula, in no step other than the introducing step's descendants,
+and introduced by exactly one step.  This table answers those questions
+for the whole derivation at once.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+from dataclasses import dataclass
+
+from checker.kernel.clauses import Clause
+from checker.kernel.formulas import Formula, symbols_of_formula
+from checker.plan import Step
+from formats.derivation import Document, Location
+
+Symbol = tuple[str, int]
+
+
+def content_symbols(content: Clause | Formula) -> set[Symbol]:
+    """Function and predicate symbols (name, arity) of a clause or formula."""
+    if isinstance(content, Clause):
+        return content.symbols()
+    return set(symbols_of_formula(content))
+
+
+def describe_symbol(symbol: Symbol) -> str:
+    return f"{symbol[0]}/{symbol[1]}"
+
+
+@dataclass(slots=True)
+class SymbolTable:
+    """Occurrences of symbols in the problem and in each stated step."""
+
+    problem: dict[Symbol, tuple[str, Location]]
+    steps: dict[str, set[Symbol]]
+    locations: dict[str, Location]
+    children: dict[str, list[str]]
+    introducers: dict[Symbol, list[str]]
+
+    def descendants(self, name: str) -> set[str]:
+        found: set[str] = set()
+        stack = [name]
+        while stack:
+            for child in self.children.get(stack.pop(), ()):
+                if child not in found:
+                    found.add(child)
+                    stack.append(child)
+        return found
+
+    def freshness_failure(self, step: str, new_symbols: Iterable[Symbol]) -> str | None:
+        """Why one of ``new_symbols`` introduced by ``step`` is not fresh, or None."""
+        allowed = self.descendants(step) | {step}
+        for symbol in sorted(new_symbols):
+            if symbol in self.problem:
+                name, location = self.problem[symbol]
+                return f"symbol `{describe_symbol(symbol)}` is not fresh: it occurs in the problem's `{name}` at {location}"
+            others = [s for s in self.introducers.get(symbol, ()) if s != step]
+            if others:
+                return (
+                    f"symbol `{describe_symbol(symbol)}` is not fresh: it is introduced again by step `{others[0]}` "
+                    f"at {self.locations[others[0]]}"
+                )
+            for name, symbols in self.steps.items():
+                if name not in allowed and symbol in symbols:
+                    return (
+                        f"symbol `{describe_symbol(symbol)}` is not fresh: it occurs in step `{name}` at "
+                        f"{self.locations[name]}, which does not descend from this step"
+                    )
+        return None
+
+
+def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> SymbolTable:
+    steps = list(steps)
+    problem_symbols: dict[Symbol, tuple[str, Location]] = {}
+    for statement in problem.statements if problem else ():
+        for symbol in content_symbols(statement.content):
+            problem_symbols.setdefault(symbol, (statement.name, statement.location))
+    step_symbols = {s.name: content_symbols(s.statement.content) for s in steps if s.statement is not None}
+    children: dict[str, list[str]] = {}
+    for s in steps:
+        for parent in s.parents:
+            children.setdefault(parent, []).append(s.name)
+    introducers: dict[Symbol, list[str]] = {}
+    for s in steps:
+        if s.statement is None:
+            continue
+        inherited: set[Symbol] = set()
+        for parent in s.parents:
+            inherited |= step_symbols.get(parent, set())
+        if s.is_leaf and not _is_introduction(s):
+            continue
+        for symbol in new_symbols(s.statement.content, ()) - inherited:
+            introducers.setdefault(symbol, []).append(s.name)
+    return SymbolTable(
+        problem_symbols, step_symbols, {s.name: s.location for s in steps}, children, introducers
+    )
+
+
+def _is_introduction(step: Step) -> bool:
+    source = step.statement.source if step.statement else None
+    return getattr(source, "kind", None) == "introduced"
+
+
+def new_symbols(claimed: Clause | Formula, premises: Iterable[Clause | Formula]) -> set[Symbol]:
+    """Symbols of the claimed statement that no premise has; equality and
+    TPTP's defined ``$`` symbols are interpreted, never introduced."""
+    found = {s for s in content_symbols(claimed) if s[0] != "=" and not s[0].startswith("$")}
+    for premise in premises:
+        found -= content_symbols(premise)
+    return found
