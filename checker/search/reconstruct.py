@@ -1,0 +1,342 @@
+"""Reconstructing the evidence for a clause step: the one entry point.
+
+Given a step's premises and claimed clause, look for kernel evidence that
+the claim follows, cheapest first: a single primitive inference (whose
+result subsumes the claim), then a short chain of rewrites and literal
+deletions, then a bounded refutation of the premises and the negated
+claim.  Everything returned has been accepted by
+:func:`checker.kernel.rules.check_clause_step`; this module itself is
+untrusted and can only fail to find evidence.
+
+When the derivation states a parent's bindings, the search runs on the
+stated instances and the evidence returned uses exactly those bindings
+(up to renaming of the variables they introduce).  When nothing is found,
+the closest candidate tells a prover developer what the nearest inference
+computes, and what differs from the claim.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, field, replace
+
+from checker.kernel.clauses import Clause, Literal
+from checker.kernel.rules import (
+    Chain,
+    Instantiation,
+    PrimitiveEvidence,
+    Refutation,
+    check_clause_step,
+    negated_claim,
+    replay,
+)
+from checker.kernel.substitution import IDENTITY, Substitution
+from checker.kernel.terms import Term, variables_of
+from checker.search.chains import Seed, find_chain
+from checker.search.evidence import (
+    Attempt,
+    candidates,
+    describe,
+    premise_references,
+    premise_substitutions,
+    reindexed,
+    with_premise_substitutions,
+)
+from checker.search.saturation import refute
+from checker.search.subsumption import find_theta
+from checker.search.unify import match_atoms_into, match_into
+
+Evidence = PrimitiveEvidence | Chain | Refutation
+
+
+@dataclass(frozen=True, slots=True)
+class SearchLimits:
+    """How much work one step's search may do, as counts (never time), so
+    that results are reproducible."""
+
+    candidates: int = 2000
+    """single-inference candidates examined"""
+    subsumption_nodes: int = 2000
+    """matching attempts per subsumption test"""
+    rewrite_steps: int = 200
+    """clauses expanded by the rewriting / deletion chain search"""
+    chain_seeds: int = 8
+    """nearest single-inference results also used as chain starts"""
+    saturation_clauses: int = 600
+    """clauses the refutation search may generate"""
+    saturation_given: int = 60
+    """clauses the refutation search may process"""
+
+    def scaled(self, factor: float) -> SearchLimits:
+        """Every bound multiplied by ``factor`` (at least 1 each)."""
+        return SearchLimits(
+            **{name: max(1, int(getattr(self, name) * factor)) for name in self.__dataclass_fields__}
+        )
+
+
+DEFAULT_LIMITS = SearchLimits()
+
+
+@dataclass(frozen=True, slots=True)
+class Candidate:
+    """The inference that came nearest to the claim, for the report."""
+
+    description: str
+    computed: Clause
+    claimed: Clause
+    missing: tuple[Literal, ...]
+    """literals the inference produces that the claimed clause lacks"""
+    extra: tuple[Literal, ...]
+    """literals of the claimed clause the inference does not produce"""
+    message: str
+    """the kernel's failure message for this candidate"""
+
+
+@dataclass(frozen=True, slots=True)
+class Reconstruction:
+    """What the search found: kernel-accepted evidence (with the theta of
+    the conclusion test), or None and the closest candidate."""
+
+    evidence: Evidence | None
+    theta: Substitution = IDENTITY
+    closest: Candidate | None = None
+    description: str = ""
+
+
+# Stated bindings -----------------------------------------------------------
+
+
+def _disagreement(stated: Substitution, used: Substitution, premise: Clause) -> str | None:
+    """None when ``used`` agrees with ``stated`` on the premise's stated
+    variables, up to renaming of the variables the stated terms introduce;
+    otherwise the first variable on which they differ, in words."""
+    variables = premise.variables()
+    compared = [var for var in sorted(variables, key=lambda v: v.symbol) if var in stated.mapping]
+    introduced: set[Term] = set()
+    for var in compared:
+        introduced |= variables_of(stated(var))
+    compared += sorted((introduced & variables) - set(compared), key=lambda v: v.symbol)
+    renaming: dict[Term, Term] = {}
+    for var in compared:
+        extended = match_into(stated(var), used(var), renaming)
+        images = list(extended.values()) if extended is not None else []
+        if extended is None or not all(t.is_variable for t in images) or len(set(images)) != len(images):
+            return f"it states {var} -> {stated(var)}, the inference uses {var} -> {used(var)}"
+        renaming = extended
+    return None
+
+
+def _violation(premises: Sequence[Clause], stated: Sequence[Substitution | None], evidence: Evidence) -> str | None:
+    """Why the evidence does not use the stated bindings, or None if it does."""
+    if isinstance(evidence, Refutation):
+        steps = evidence.chain.steps
+    elif isinstance(evidence, Chain):
+        steps = evidence.steps
+    else:
+        steps = (evidence,)
+    for step in steps:
+        for index, used in premise_substitutions(step):
+            if index < len(premises) and stated[index] is not None:
+                wrong = _disagreement(stated[index], used, premises[index])
+                if wrong is not None:
+                    return f"the stated bindings of premise {index} are wrong: {wrong}"
+    return None
+
+
+def _composed(stated: Sequence[Substitution | None], premises: Sequence[Clause]):
+    """For evidence found on the stated instances of the premises: each
+    premise's substitution s becomes s after the stated one."""
+
+    def change(index: int, found: Substitution) -> Substitution:
+        given = stated[index]
+        if given is None:
+            return found
+        mapping = {var: found(given(var)) for var in premises[index].variables()}
+        return Substitution(mapping)
+
+    return change
+
+
+def _prefixed(chain: Chain, stated: Sequence[Substitution | None], premise_count: int, extra: int) -> Chain:
+    """A chain found on the stated instances, made to start from the
+    premises themselves: it first derives each stated instance, then runs
+    with indices moved past those instantiations.  ``extra`` clauses (the
+    negated claim of a refutation) sit between the premises and the steps."""
+    prefix = [Instantiation(index, given) for index, given in enumerate(stated) if given is not None]
+    base = premise_count + extra
+    mapping = {index: index for index in range(base)}
+    for position, step in enumerate(prefix):
+        mapping[step.premise] = base + position
+    for number in range(len(chain.steps)):
+        mapping[base + number] = base + len(prefix) + number
+    return Chain((*prefix, *(reindexed(step, mapping) for step in chain.steps)))
+
+
+# The search ----------------------------------------------------------------
+
+
+def _partial_theta(computed: Clause, claimed: Clause) -> Substitution:
+    """A greedy theta matching as many computed literals into the claim as it
+    happens to find, for showing how near a candidate came."""
+    bindings: dict[Term, Term] = {}
+    for literal in dict.fromkeys(computed.literals):
+        for target in dict.fromkeys(claimed.literals):
+            if target.positive != literal.positive:
+                continue
+            extended = match_atoms_into(literal.atom, target.atom, bindings)
+            if extended:
+                bindings = extended[0]
+                break
+    return Substitution(bindings)
+
+
+def _difference(computed: Clause, claimed: Clause) -> tuple[tuple[Literal, ...], tuple[Literal, ...]]:
+    produced = computed.instance(_partial_theta(computed, claimed))
+    missing = tuple(dict.fromkeys(lit for lit in produced.literals if lit not in claimed.literal_set))
+    extra = tuple(lit for lit in claimed.literals if lit not in produced.literal_set)
+    return missing, extra
+
+
+@dataclass(slots=True)
+class _Search:
+    """The state of one step's search."""
+
+    premises: Sequence[Clause]
+    claimed: Clause
+    stated: Sequence[Substitution | None]
+    limits: SearchLimits
+    searched: Sequence[Clause]  # the premises, or their stated instances
+    best: tuple[int, int, Attempt] | None = None
+    stated_wrong: tuple[str, Attempt] | None = None
+    seeds: list[Seed] = field(default_factory=list)
+
+    def accept(self, evidence: Evidence, theta: Substitution) -> bool:
+        if any(given is not None for given in self.stated) and _violation(self.premises, self.stated, evidence):
+            return False
+        return check_clause_step(self.premises, self.claimed, evidence, theta) is None
+
+    def lift(self, evidence: PrimitiveEvidence, theta: Substitution) -> tuple[PrimitiveEvidence, Substitution]:
+        """Evidence on the premises themselves.  An instantiation takes theta
+        in, unless its premise has stated bindings (theta then stays apart,
+        since it instantiates the stated instance further)."""
+        if isinstance(evidence, Instantiation) and self.stated[evidence.premise] is None:
+            evidence, theta = replace(evidence, substitution=theta), IDENTITY
+        if any(given is not None for given in self.stated):
+            evidence = with_premise_substitutions(evidence, _composed(self.stated, self.premises))
+        return evidence, theta
+
+    def single(self, rule_hint: str) -> Reconstruction | None:
+        near: list[tuple[int, int, Attempt]] = []
+        for number, attempt in enumerate(candidates(self.searched, rule_hint)):
+            if number >= self.limits.candidates:
+                break
+            theta = find_theta(attempt.computed, self.claimed, self.limits.subsumption_nodes)
+            if theta is not None:
+                evidence, theta = self.lift(attempt.evidence, theta)
+                if self.accept(evidence, theta):
+                    return Reconstruction(evidence, theta, None, describe(self.premises, evidence))
+                wrong = _violation(self.premises, self.stated, evidence)
+                if wrong is not None and self.stated_wrong is None:
+                    self.stated_wrong = (wrong, attempt)
+                continue
+            missing, extra = _difference(attempt.computed, self.claimed)
+            near.append((len(missing) + len(extra), number, attempt))
+        near.sort(key=lambda item: item[:2])
+        if near:
+            self.best = near[0]
+        self.seeds = [Seed(a.computed, (a.evidence,)) for _, _, a in near[: self.limits.chain_seeds]]
+        return None
+
+    def chain(self) -> Reconstruction | None:
+        seeds = [Seed(clause, (), index) for index, clause in enumerate(self.searched)] + self.seeds
+        found = find_chain(self.searched, self.claimed, seeds, self.limits.rewrite_steps, self.limits.subsumption_nodes)
+        if found is None:
+            return None
+        chain, theta = found
+        if any(given is not None for given in self.stated):
+            chain = _prefixed(chain, self.stated, len(self.premises), 0)
+        if not self.accept(chain, theta):
+            return None
+        return Reconstruction(chain, theta, None, f"chain of {len(chain.steps)} rewrites and literal deletions")
+
+    def refutation(self) -> Reconstruction | None:
+        negation = negated_claim(self.premises, self.claimed)
+        chain = refute(
+            [*self.searched, *negation],
+            self.limits.saturation_clauses,
+            self.limits.saturation_given,
+            self.limits.subsumption_nodes,
+        )
+        if chain is None:
+            return None
+        if any(given is not None for given in self.stated):
+            chain = _prefixed(chain, self.stated, len(self.premises), len(negation))
+        evidence = Refutation(chain)
+        if not self.accept(evidence, IDENTITY):
+            return None
+        return Reconstruction(
+            evidence, IDENTITY, None, f"refutation of the premises and the negated claim in {len(chain.steps)} inferences"
+        )
+
+    def closest(self) -> Candidate | None:
+        if self.stated_wrong is not None:
+            wrong, attempt = self.stated_wrong
+            evidence, _ = self.lift(attempt.evidence, IDENTITY)
+            return Candidate(describe(self.premises, evidence), attempt.computed, self.claimed, (), (), wrong)
+        if self.best is None:
+            return None
+        attempt = self.best[2]
+        theta = _partial_theta(attempt.computed, self.claimed)
+        missing, extra = _difference(attempt.computed, self.claimed)
+        evidence, theta = self.lift(attempt.evidence, theta)
+        failure = check_clause_step(self.premises, self.claimed, evidence, theta)
+        message = failure.message if failure is not None else "accepted by the kernel"
+        return Candidate(describe(self.premises, evidence), attempt.computed, self.claimed, missing, extra, message)
+
+
+def _run(search: _Search, rule_hint: str) -> Reconstruction:
+    for stage in (lambda: search.single(rule_hint), search.chain, search.refutation):
+        found = stage()
+        if found is not None:
+            return found
+    return Reconstruction(None, IDENTITY, search.closest())
+
+
+def reconstruct(
+    premises: Sequence[Clause],
+    claimed: Clause,
+    rule_hint: str = "",
+    limits: SearchLimits = DEFAULT_LIMITS,
+    stated: Sequence[Substitution | None] | None = None,
+) -> Reconstruction:
+    """Kernel-accepted evidence that ``claimed`` follows from ``premises``,
+    or the closest candidate.  ``rule_hint`` is the prover's rule name (it
+    only reorders the tries); ``stated`` holds, per premise, the bindings the
+    derivation states for it, or None."""
+    premises = list(premises)
+    given = list(stated) if stated is not None else []
+    given = (given + [None] * len(premises))[: len(premises)]
+    if not any(bindings is not None for bindings in given):
+        none = [None] * len(premises)
+        return _run(_Search(premises, claimed, none, limits, premises), rule_hint)
+    instances = [p if b is None else p.instance(b) for p, b in zip(premises, given)]
+    found = _run(_Search(premises, claimed, given, limits, instances), rule_hint)
+    if found.evidence is not None:
+        return found
+    # Nothing fits the stated bindings: if the step holds without them, say
+    # that the bindings are what is wrong.
+    free = _run(_Search(premises, claimed, [None] * len(premises), limits, premises), rule_hint)
+    if free.evidence is None:
+        return found
+    wrong = _violation(premises, given, free.evidence) or "the stated bindings do not fit the inference"
+    computed = _computed(premises, claimed, free.evidence, free.theta)
+    candidate = Candidate(free.description, computed, claimed, (), (), wrong)
+    return Reconstruction(None, IDENTITY, candidate)
+
+
+def _computed(premises: Sequence[Clause], claimed: Clause, evidence: Evidence, theta: Substitution) -> Clause:
+    """The clause the (accepted) evidence computes, as the claim saw it."""
+    if isinstance(evidence, Refutation):
+        return claimed
+    result = replay(premises, evidence)
+    return result.instance(theta) if isinstance(result, Clause) else claimed

@@ -1,0 +1,114 @@
+"""A small bounded saturation search for a refutation, as kernel evidence.
+
+For a step no single inference or simplification chain explains, the
+claimed clause may still follow from the premises by a short proof.  This
+is the given-clause loop: pick the lightest unprocessed clause, drop it if
+it is a tautology or subsumed by a processed one, otherwise infer
+everything it yields with the processed clauses (binary resolution,
+factoring, paramodulation, equality resolution and factoring).  Every
+derived clause remembers its kernel evidence, so when the empty clause
+appears only its ancestors are kept and re-indexed into a kernel
+:class:`~checker.kernel.rules.Chain`.  The bounds are counts, never time.
+"""
+
+from __future__ import annotations
+
+import heapq
+from collections.abc import Iterator, Sequence
+
+from checker.kernel.clauses import Clause, is_equality
+from checker.kernel.rules import Chain, Instantiation, PrimitiveEvidence
+from checker.kernel.terms import subterms
+from checker.search.evidence import (
+    Attempt,
+    equality_factors,
+    equality_resolvents,
+    factors,
+    paramodulants,
+    premise_references,
+    reindexed,
+    resolvents,
+)
+from checker.search.subsumption import find_theta
+
+def _weight(clause: Clause) -> int:
+    return sum(sum(1 for _ in subterms(literal.atom)) for literal in clause.literal_set)
+
+
+def _tautology(clause: Clause) -> bool:
+    for literal in clause.literal_set:
+        if literal.positive and is_equality(literal.atom) and literal.atom.arguments[0] is literal.atom.arguments[1]:
+            return True
+        if literal.negated() in clause.literal_set:
+            return True
+    return False
+
+
+def _inferences(store: list[Clause], given: int, active: list[int]) -> Iterator[Attempt]:
+    yield from equality_resolvents(store, given)
+    yield from factors(store, given)
+    yield from equality_factors(store, given)
+    for other in active:
+        yield from resolvents(store, other, given)
+        yield from paramodulants(store, other, given)
+        if other != given:
+            yield from paramodulants(store, given, other)
+
+
+def _extract(store_evidence: dict[int, PrimitiveEvidence], initial: int, empty: int) -> Chain:
+    """The chain deriving clause ``empty`` from the initial clauses, keeping
+    only its ancestors, numbered as :class:`Chain` requires."""
+    needed: set[int] = set()
+    stack = [empty]
+    while stack:
+        current = stack.pop()
+        if current < initial or current in needed:
+            continue
+        needed.add(current)
+        stack.extend(premise_references(store_evidence[current]))
+    mapping = {index: index for index in range(initial)}
+    for rank, index in enumerate(sorted(needed)):
+        mapping[index] = initial + rank
+    return Chain(tuple(reindexed(store_evidence[index], mapping) for index in sorted(needed)))
+
+
+def refute(
+    clauses: Sequence[Clause],
+    max_generated: int,
+    max_given: int,
+    subsumption_nodes: int,
+) -> Chain | None:
+    """A chain deriving the empty clause from ``clauses`` (their indices are
+    the chain's premise indices), or None within the bounds."""
+    store = list(clauses)
+    initial = len(store)
+    evidence_of: dict[int, PrimitiveEvidence] = {}
+    for index, clause in enumerate(store):
+        if clause.is_empty:
+            return Chain((Instantiation(index),))
+    passive: list[tuple[int, int]] = [(_weight(c), i) for i, c in enumerate(store) if not _tautology(c)]
+    heapq.heapify(passive)
+    seen = {clause.literal_set for clause in store}
+    active: list[int] = []
+    generated = given_count = 0
+    while passive and given_count < max_given:
+        _, given = heapq.heappop(passive)
+        clause = store[given]
+        if any(find_theta(store[other], clause, subsumption_nodes) is not None for other in active):
+            continue
+        given_count += 1
+        active.append(given)
+        for attempt in _inferences(store, given, active):
+            computed = attempt.computed
+            if computed.literal_set in seen or _tautology(computed):
+                continue
+            seen.add(computed.literal_set)
+            store.append(computed)
+            evidence_of[len(store) - 1] = attempt.evidence
+            if computed.is_empty:
+                return _extract(evidence_of, initial, len(store) - 1)
+            generated += 1
+            if generated >= max_generated:
+                return None
+            heapq.heappush(passive, (_weight(computed), len(store) - 1))
+    return None
