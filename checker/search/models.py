@@ -1,0 +1,203 @@
+"""Counter-model search: a finite interpretation in which a step's premises
+hold and its conclusion fails.
+
+Untrusted.  The premises and the negated conclusion are turned into clauses
+by the kernel's clausifier; for each domain size from 1 up, the clauses'
+ground instances over the domain are encoded as a propositional problem
+and handed to a SAT solver (python-sat).  Function applications are
+flattened first: ``p(f(X))`` becomes ``f(X) != Y | p(Y)``, and each entry of
+a function table is a group of value variables of which exactly one is
+true.  A solver model is decoded into an :class:`Interpretation` of the
+step's own symbols and returned only when the kernel's
+``confirm_countermodel`` agrees.  The search is bounded by counts (domain
+size, ground clauses, solver conflicts), never by time.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+from itertools import combinations, product
+
+from pysat.solvers import Solver
+
+from checker.kernel.clauses import Clause
+from checker.kernel.entailment import entailment_clausification
+from checker.kernel.formulas import ATOM, Formula, subformulas_with_polarity
+from checker.kernel.models import Interpretation, confirm_countermodel
+from checker.kernel.terms import Term
+
+Symbol = tuple[str, int]
+SOLVER = "glucose4"
+
+
+@dataclass(frozen=True, slots=True)
+class FlatLiteral:
+    """``[~]p(v..)``, ``[~]v = w`` or ``[~]f(v..) = w`` over numbered
+    variables: ``kind`` is ``predicate``, ``equality`` or ``function``;
+    ``result`` is the value variable of a function literal."""
+
+    kind: str
+    positive: bool
+    symbol: Symbol | None
+    arguments: tuple[int, ...]
+    result: int = -1
+
+
+@dataclass(frozen=True, slots=True)
+class FlatClause:
+    variable_count: int
+    literals: tuple[FlatLiteral, ...]
+
+
+def flatten(clause: Clause) -> FlatClause:
+    """The clause with every function application named by a variable:
+    ``C[f(t)]`` becomes ``f(t) != Y | C[Y]``, innermost applications first,
+    one variable per distinct subterm."""
+    slots: dict[Term, int] = {}
+    definitions: list[FlatLiteral] = []
+
+    def slot(term: Term) -> int:
+        stack = [term]
+        while stack:
+            current = stack[-1]
+            if current in slots:
+                stack.pop()
+                continue
+            pending = [a for a in current.arguments if a not in slots]
+            if pending:
+                stack.extend(pending)
+                continue
+            stack.pop()
+            slots[current] = len(slots)
+            if not current.is_variable:
+                arguments = tuple(slots[a] for a in current.arguments)
+                symbol = (current.symbol, current.arity)
+                definitions.append(FlatLiteral("function", False, symbol, arguments, slots[current]))
+        return slots[term]
+
+    literals = []
+    for literal in clause.literals:
+        atom = literal.atom
+        arguments = tuple(slot(a) for a in atom.arguments)
+        if atom.symbol == "=" and atom.arity == 2:
+            literals.append(FlatLiteral("equality", literal.positive, None, arguments))
+        else:
+            literals.append(FlatLiteral("predicate", literal.positive, (atom.symbol, atom.arity), arguments))
+    return FlatClause(len(slots), (*definitions, *literals))
+
+
+def _signature(atoms) -> tuple[set[Symbol], set[Symbol]]:
+    """The predicate and the function symbols of some atoms."""
+    predicates: set[Symbol] = set()
+    functions: set[Symbol] = set()
+    for atom in atoms:
+        if not (atom.symbol == "=" and atom.arity == 2):
+            predicates.add((atom.symbol, atom.arity))
+        stack = list(atom.arguments)
+        while stack:
+            term = stack.pop()
+            if not term.is_variable:
+                functions.add((term.symbol, term.arity))
+                stack.extend(term.arguments)
+    return predicates, functions
+
+
+def _atoms(statement: Clause | Formula):
+    if isinstance(statement, Clause):
+        return [literal.atom for literal in statement.literals]
+    return [f.atom for f, _ in subformulas_with_polarity(statement) if f.connective == ATOM]
+
+
+class _Encoding:
+    """Propositional variables for one domain size, numbered from 1."""
+
+    def __init__(self, size: int):
+        self.size = size
+        self.numbers: dict[tuple, int] = {}
+
+    def number(self, key: tuple) -> int:
+        if key not in self.numbers:
+            self.numbers[key] = len(self.numbers) + 1
+        return self.numbers[key]
+
+    def ground(self, clause: FlatClause) -> list[list[int]]:
+        grounded = []
+        for values in product(range(self.size), repeat=clause.variable_count):
+            propositional = []
+            for literal in clause.literals:
+                if literal.kind == "equality":
+                    if (values[literal.arguments[0]] == values[literal.arguments[1]]) == literal.positive:
+                        break
+                    continue
+                arguments = tuple(values[i] for i in literal.arguments)
+                if literal.kind == "predicate":
+                    key = ("predicate", literal.symbol, arguments)
+                else:
+                    key = ("function", literal.symbol, arguments, values[literal.result])
+                propositional.append(self.number(key) if literal.positive else -self.number(key))
+            else:
+                grounded.append(propositional)
+        return grounded
+
+    def function_tables(self, function: Symbol) -> list[list[int]]:
+        """Exactly one value for each argument tuple of ``function``."""
+        constraints = []
+        for arguments in product(range(self.size), repeat=function[1]):
+            values = [self.number(("function", function, arguments, v)) for v in range(self.size)]
+            constraints.append(values)
+            constraints.extend([-a, -b] for a, b in combinations(values, 2))
+        return constraints
+
+
+def _ground_clause_count(size: int, clauses: Sequence[FlatClause], functions: set[Symbol]) -> int:
+    per_entry = 1 + size * (size - 1) // 2
+    return sum(size**c.variable_count for c in clauses) + sum(size**arity * per_entry for _, arity in functions)
+
+
+def find_countermodel(
+    premises: Sequence[Clause | Formula],
+    conclusion: Clause | Formula,
+    max_domain: int = 4,
+    limit: int = 100_000,
+    conflicts: int = 100_000,
+) -> Interpretation | None:
+    """A kernel-confirmed interpretation of at most ``max_domain`` elements
+    in which the premises are true and the conclusion false, or None when
+    there is none that small or a bound (``limit`` ground clauses per
+    domain size, ``conflicts`` solver conflicts) was reached first."""
+    clausification = entailment_clausification(premises, conclusion)
+    clauses = [flatten(clause) for clause in clausification.clauses]
+    _, functions = _signature(literal.atom for clause in clausification.clauses for literal in clause.literals)
+    own_predicates, own_functions = _signature(a for s in (*premises, conclusion) for a in _atoms(s))
+    functions |= own_functions
+    for size in range(1, max_domain + 1):
+        if _ground_clause_count(size, clauses, functions) > limit:
+            return None
+        encoding = _Encoding(size)
+        problem = [g for clause in clauses for g in encoding.ground(clause)]
+        for function in sorted(functions):
+            problem.extend(encoding.function_tables(function))
+        with Solver(name=SOLVER, bootstrap_with=problem) as solver:
+            solver.conf_budget(conflicts)
+            answer = solver.solve_limited()
+            if answer is None:
+                return None
+            if not answer:
+                continue
+            true = {n for n in solver.get_model() if n > 0}
+        model = {key for key, n in encoding.numbers.items() if n in true}
+        interpretation = Interpretation(
+            size,
+            {
+                f: {key[2]: key[3] for key in model if key[0] == "function" and key[1] == f}
+                for f in sorted(own_functions)
+            },
+            {
+                p: frozenset(key[2] for key in model if key[0] == "predicate" and key[1] == p)
+                for p in sorted(own_predicates)
+            },
+        )
+        if confirm_countermodel(interpretation, premises, conclusion) is None:
+            return interpretation
+    return None
