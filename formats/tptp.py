@@ -46,7 +46,7 @@ from formats.derivation import (
     Statement,
     UnreadableInput,
 )
-from formats.tptp_scan import SkippedText, StatementText, scan
+from formats.tptp_scan import SkippedText, excerpt, scan
 
 ROLES = frozenset(
     (
@@ -372,8 +372,11 @@ class _Builder(Transformer):
         return Clause(literals)
 
     # annotations
-    def general_word(self, token):
-        return _Word(str(token), token.type == "UPPER_WORD" if isinstance(token, Token) else False)
+    def general_word(self, word):
+        return _Word(str(word))
+
+    def general_variable(self, token):
+        return _Word(str(token), is_variable=True)
 
     def general_function(self, name, arguments):
         return _Function(name, tuple(arguments))
@@ -479,12 +482,6 @@ def _explain(error: UnexpectedInput) -> tuple[str, int, int]:
             token.column,
         )
     return f"cannot read this text ({error})", max(error.line, 1), max(error.column, 1)
-
-
-def excerpt(line_text: str, column: int) -> str:
-    """The offending line with a caret under ``column`` (1-based)."""
-    pad = "".join("\t" if c == "\t" else " " for c in line_text[: column - 1])
-    return f"{line_text}\n{pad}^"
 
 
 def _parse(text: str, start: str, file: str, line: int, column: int, whole: str | None = None):

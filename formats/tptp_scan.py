@@ -47,6 +47,13 @@ class SkippedText:
     lines: int
 
 
+def excerpt(line_text: str, column: int) -> str:
+    """The offending line with a caret under ``column`` (1-based)."""
+    line_text = line_text.rstrip("\r")
+    pad = "".join("\t" if c == "\t" else " " for c in line_text[: column - 1])
+    return f"{line_text}\n{pad}^"
+
+
 def _statement_end(text: str, position: int) -> int:
     """The offset just after the statement whose opening bracket ends just
     before ``position``; if the full stop is missing, the offset after the
@@ -96,9 +103,12 @@ def scan(text: str, file: str) -> Iterator[StatementText | SkippedText]:
         if text.startswith("/*", position):
             close = text.find("*/", position + 2)
             if close < 0:
+                newline = text.find("\n", position)
+                column = position - line_start + 1
                 raise UnreadableInput(
                     "comment is never closed (no */)",
-                    Location(file, line, position - line_start + 1),
+                    Location(file, line, column),
+                    excerpt(text[line_start : len(text) if newline < 0 else newline], column),
                 )
             end = close + 2
         else:
