@@ -13,13 +13,12 @@ from __future__ import annotations
 
 import os
 import re
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
 from lark import Lark, Token, Transformer, v_args
-from lark.exceptions import UnexpectedCharacters, UnexpectedInput, UnexpectedToken
-from lark.lexer import PatternStr
+from lark.exceptions import UnexpectedCharacters, UnexpectedToken
 
 from checker.kernel.clauses import EQUALITY, Clause, Literal
 from checker.kernel.formulas import (
@@ -46,7 +45,7 @@ from formats.derivation import (
     Statement,
     UnreadableInput,
 )
-from formats.tptp_scan import SkippedText, excerpt, scan
+from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
 
 ROLES = frozenset(
     (
@@ -447,41 +446,31 @@ _TERMINAL_WORDS = {
 
 
 def _describe(terminal: str) -> str:
-    if terminal in _TERMINAL_WORDS:
-        return _TERMINAL_WORDS[terminal]
-    pattern = _PARSER.get_terminal(terminal).pattern
-    return f"'{pattern.value}'" if isinstance(pattern, PatternStr) else terminal.lower()
+    """A terminal of the grammar in plain words; literal ones as written."""
+    return _TERMINAL_WORDS.get(terminal) or f"'{_PARSER.get_terminal(terminal).pattern.value}'"
 
 
 def _expected(terminals) -> str:
-    words = sorted({_describe(name) for name in terminals or ()})
-    if not words:
-        return ""
-    if len(words) == 1:
-        return f"; expected {words[0]}"
-    return "; expected " + ", ".join(words[:-1]) + " or " + words[-1]
+    words = sorted({_describe(name) for name in terminals})
+    if len(words) > 1:
+        words = [", ".join(words[:-1]) + " or " + words[-1]]
+    return "".join(f"; expected {word}" for word in words)
 
 
-def _explain(error: UnexpectedInput) -> tuple[str, int, int]:
-    """Message, line and column (within the parsed text) of a lark error."""
+def _explain(error: UnexpectedCharacters | UnexpectedToken) -> tuple[str, int, int]:
+    """Message, line and column (within the parsed text) of a parse error."""
     if isinstance(error, UnexpectedCharacters):
         return (
-            f"unexpected character {error.char!r}{_expected(error.allowed)}",
+            f"unexpected character {error.char!r}{_expected(error.allowed or ())}",
             error.line,
             error.column,
         )
-    if isinstance(error, UnexpectedToken):
-        token = error.token
-        if token.type == "$END":
-            line = token.end_line if token.end_line else 1
-            column = token.end_column if token.end_column else 1
-            return f"unexpected end of text{_expected(error.expected)}", line, column
-        return (
-            f"unexpected '{token}'{_expected(error.expected)}",
-            token.line,
-            token.column,
-        )
-    return f"cannot read this text ({error})", max(error.line, 1), max(error.column, 1)
+    token = error.token
+    if token.type == "$END":
+        line = token.end_line or 1
+        column = token.end_column or 1
+        return f"unexpected end of text{_expected(error.expected)}", line, column
+    return f"unexpected '{token}'{_expected(error.expected)}", token.line, token.column
 
 
 def _parse(text: str, start: str, file: str, line: int, column: int, whole: str | None = None):
@@ -489,7 +478,7 @@ def _parse(text: str, start: str, file: str, line: int, column: int, whole: str 
     ``file``, whose full text ``whole`` supplies the excerpt when given."""
     try:
         return _PARSER.parse(text, start=start)
-    except UnexpectedInput as error:
+    except (UnexpectedCharacters, UnexpectedToken) as error:
         message, at_line, at_column = _explain(error)
     except _Misread as error:
         message, at_line, at_column = error.message, error.token.line, error.token.column
@@ -538,7 +527,7 @@ class _Frame:
     path: str
     identity: str | None
     text: str
-    chunks: object
+    chunks: Iterator[StatementText | SkippedText]
     statements: list[Statement]
     selection: tuple[str, ...] | None = None
     included_at: Location | None = None
