@@ -17,6 +17,7 @@ from __future__ import annotations
 
 import dataclasses
 import json
+import re
 from collections.abc import Collection, Iterator, Mapping
 from dataclasses import dataclass
 from typing import NoReturn, TextIO
@@ -162,20 +163,12 @@ class _Record:
         raise UnreadableInput(message, self.location(column), _excerpt(self.text))
 
     def column_of_value(self, field: str) -> int:
-        """The column where the string value of top-level ``field`` starts
-        (inside its quotes), or 1 if it cannot be found in the raw line."""
-        key = f'"{field}"'
-        start = self.text.find(key)
-        if start < 0:
-            return 1
-        rest = self.text[start + len(key) :]
-        stripped = rest.lstrip()
-        if not stripped.startswith(":"):
-            return 1
-        after_colon = stripped[1:].lstrip()
-        if not after_colon.startswith('"'):
-            return 1
-        return len(self.text) - len(after_colon) + 2
+        """The column where the string value of ``field`` starts (inside its
+        quotes), or 1 if the raw line spells the key differently (escaped).
+        Quotes inside JSON strings are escaped, so the pattern can only
+        match the key itself."""
+        found = re.search(f'"{re.escape(field)}"\\s*:\\s*"', self.text)
+        return found.end() + 1 if found else 1
 
 
 def _excerpt(text: str, limit: int = 200) -> str:
@@ -382,7 +375,8 @@ def _origin(record: _Record, value: object) -> Origin:
 
 
 def _statement(record: _Record, value: object) -> Statement:
-    value = _object(record, value, "record")
+    if not isinstance(value, dict):
+        record.fail("a record must be a JSON object")
     if VERSION_FIELD in value:
         record.fail("a second header record: the header must be the first record and appear once")
     _check_fields(record, value, "", STATEMENT_REQUIRED, STATEMENT_OPTIONAL)
