@@ -354,12 +354,13 @@ class _Builder(Transformer):
     def inequality_literal(self, atom):
         return Literal(False, atom)
 
-    def disjunction(self, literals, *more):
+    def disjunction(self, first, *more):
+        """Start or extend the list of kept literals."""
         if not more:
-            return [] if literals is None else [literals]
+            return [] if first is None else [first]
         if more[0] is not None:
-            literals.append(more[0])
-        return literals
+            first.append(more[0])
+        return first
 
     def single_literal(self, literal):
         return [] if literal is None else [literal]
@@ -392,6 +393,7 @@ class _Builder(Transformer):
         return _Data(str(kind), value)
 
     def annotations(self, source, useful_info=None):
+        """The source; a statement's own useful info has no place in the data model."""
         return source
 
     # statements
@@ -415,10 +417,10 @@ class _Builder(Transformer):
         return _Include(file_name, selection)
 
     def fof_annotated(self, name, role, formula, source=None):
-        return _Annotated("fof", name, role, formula, source and _source(source))
+        return _Annotated("fof", name, role, formula, None if source is None else _source(source))
 
     def cnf_annotated(self, name, role, clause, source=None):
-        return _Annotated("cnf", name, role, clause, source and _source(source))
+        return _Annotated("cnf", name, role, clause, None if source is None else _source(source))
 
 
 _PARSER = Lark(

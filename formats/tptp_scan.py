@@ -16,8 +16,6 @@ from dataclasses import dataclass
 
 from formats.derivation import Location, UnreadableInput
 
-KEYWORDS = ("cnf", "fof", "tff", "thf", "tcf", "tpi", "include")
-
 _KEYWORD = re.compile(r"(cnf|fof|tff|thf|tcf|tpi|include)[ \t\r\n\f\v]*\(")
 _BLANK = re.compile(r"[ \t\r\f\v]*")
 _INSIDE = re.compile(r"[()'\"%]|/\*")

@@ -7,7 +7,7 @@ import pytest
 
 from checker.kernel.terms import application, variable
 from formats.derivation import UnreadableInput
-from formats.tptp import parse_clause, parse_term
+from formats.tptp import parse_term, parse_tptp
 
 a = application("a")
 b = application("b")
@@ -83,10 +83,14 @@ def test_malformed_terms_are_unreadable(text):
 
 
 def test_term_nested_far_beyond_the_recursion_limit():
-    # common practice: prover output can nest terms arbitrarily deep
+    # common practice: prover output can nest terms arbitrarily deep; read
+    # here as a whole statement, so the scanner meets the depth too
     depth = 100_000
     assert depth > 10 * sys.getrecursionlimit()
-    clause = parse_clause("p(" + "f(" * depth + "a" + ")" * depth + ")")
+    text = "cnf(deep, axiom, p(" + "f(" * depth + "a" + ")" * depth + ")).\ncnf(next, axiom, q)."
+    deep, following = parse_tptp(text).statements
+    assert following.name == "next"
+    clause = deep.content
     (literal,) = clause.literals
     term, levels = literal.atom.arguments[0], 0
     while term.arguments:
