@@ -31,7 +31,7 @@ from checker.plan import make_plan
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.steps import StepContext, check_inference
 from formats.derivation import Document, Origin, UnreadableInput
-from formats.native import read_native
+from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
 
 NO_PROBLEM_CAUTION = (
@@ -69,6 +69,27 @@ def check(
         return Report(path, INTERNAL_ERROR, problem=problem, error="internal error:\n" + traceback.format_exc())
 
 
+def discover_problem(path: str, document: Document, include_dirs: Sequence[str]) -> str | None:
+    """The problem a derivation names, when it can be found: the native
+    header's ``problem``, else the file cited by the leaves' ``file(...)``
+    sources, looked up next to the certificate and then in the include
+    directories."""
+    if document.format == "native":
+        cited = [read_native_header(path).problem]
+    else:
+        cited = [
+            statement.source.detail[0]
+            for statement in document.statements
+            if isinstance(statement.source, Origin) and statement.source.kind == "file" and statement.source.detail
+        ]
+    for name in dict.fromkeys(c for c in cited if c):
+        for directory in (os.path.dirname(os.path.abspath(path)), *include_dirs):
+            candidate = os.path.join(directory, name)
+            if os.path.isfile(candidate) and os.path.abspath(candidate) != os.path.abspath(path):
+                return candidate
+    return None
+
+
 def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
     from_environment = os.environ.get("TPTP")
     return include_dirs + ((from_environment,) if from_environment else ())
@@ -77,6 +98,7 @@ def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
 def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], limits: SearchLimits) -> Report:
     include_dirs = _include_dirs(include_dirs)
     document = read_document(path, include_dirs)
+    problem_path = problem_path or discover_problem(path, document, include_dirs)
     problem = read_tptp(problem_path, include_dirs) if problem_path else None
     plan = make_plan(document)
     context = StepContext(limits, build_symbol_table(plan.steps, problem))

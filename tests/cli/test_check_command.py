@@ -1,0 +1,104 @@
+"""The `assay check` command: verdicts, exit codes and report fields.
+
+Exit codes and outcomes are those of the design (DESIGN section 4); the
+demo certificate and its broken copy are the bundled fixtures.
+"""
+
+import json
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+from click.testing import CliRunner
+
+from checker.cli import main
+
+ROOT = Path(__file__).resolve().parents[2]
+DEMO = ROOT / "fixtures" / "demo"
+
+
+def run(*args: str):
+    result = CliRunner().invoke(main, ["check", *args], catch_exceptions=False)
+    return result.exit_code, result.output
+
+
+def test_demo_is_accepted_against_its_problem():
+    code, output = run(str(DEMO / "interlock.jsonl"), "--problem", str(DEMO / "interlock_problem.p"))
+    assert code == 0, output
+    assert "interlock.jsonl: accepted" in output
+    assert "axioms as written" in output  # the caution accompanies every text report
+
+
+def test_broken_demo_is_rejected_at_the_broken_step_with_a_located_diagnosis():
+    code, output = run(str(DEMO / "interlock_broken.jsonl"), "--report", "json")
+    assert code == 1
+    report = json.loads(output)
+    assert report["verdict"] == "rejected"
+    failure = report["first_failure"]
+    assert failure["step"] == "p1_flow_path"
+    assert failure["outcome"] == "failed"
+    lines = (DEMO / "interlock_broken.jsonl").read_text().splitlines()
+    line = next(n for n, text in enumerate(lines, start=1) if '"name": "p1_flow_path"' in text)
+    assert failure["location"].endswith(f"interlock_broken.jsonl:{line}:1")
+    # The diagnosis names the literals and the clashing terms.
+    assert "p2" in failure["message"] and "p1" in failure["message"]
+
+
+def test_json_report_has_the_fields_programs_rely_on():
+    code, output = run(str(DEMO / "interlock.jsonl"), "--report", "json")
+    report = json.loads(output)
+    assert code == 0
+    assert set(report) >= {"verdict", "counts", "first_failure", "steps"}
+    assert report["first_failure"] is None
+    assert sum(report["counts"].values()) == len(report["steps"])
+    assert all(set(step) >= {"name", "outcome"} for step in report["steps"])
+    # The header names the problem, so leaves are checked, not assumed.
+    assert "assumed" not in report["counts"]
+
+
+def test_batch_reports_the_worst_verdict_and_checks_every_file(tmp_path):
+    unreadable = tmp_path / "garbled.p"
+    unreadable.write_text("cnf(c1, axiom, p(X) | ).\n")
+    code, output = run(str(unreadable), str(DEMO / "interlock.jsonl"), str(DEMO / "interlock_broken.jsonl"))
+    assert code == 2
+    assert "garbled.p: unreadable" in output
+    assert "garbled.p:1:" in output
+    assert "interlock.jsonl: accepted" in output
+    assert "interlock_broken.jsonl: rejected" in output
+    assert "Traceback" not in output
+
+
+def test_missing_file_is_unreadable_not_a_traceback(tmp_path):
+    code, output = run(str(tmp_path / "nowhere.p"))
+    assert code == 2
+    assert "cannot read" in output and "Traceback" not in output
+
+
+def test_bad_usage_exits_2():
+    result = CliRunner().invoke(main, ["check"])
+    assert result.exit_code == 2
+    result = CliRunner().invoke(main, ["check", "x.p", "--report", "pdf"])
+    assert result.exit_code == 2
+
+
+def test_record_ties_the_verdict_to_file_hashes(tmp_path):
+    import hashlib
+
+    record_path = tmp_path / "record.json"
+    code, _ = run(str(DEMO / "interlock.jsonl"), "--record", str(record_path))
+    assert code == 0
+    record = json.loads(record_path.read_text())
+    entry = record["files"][0]
+    assert entry["certificate_sha256"] == hashlib.sha256((DEMO / "interlock.jsonl").read_bytes()).hexdigest()
+    assert entry["report"]["verdict"] == "accepted"
+    assert "does not show that those axioms describe the real system" in record["scope"]
+
+
+def test_module_entry_point_runs_the_same_command():
+    completed = subprocess.run(
+        [sys.executable, "-m", "checker", "check", str(DEMO / "interlock_broken.jsonl")],
+        capture_output=True, text=True, cwd=ROOT, env={**os.environ},
+    )
+    assert completed.returncode == 1
+    assert "rejected" in completed.stdout
