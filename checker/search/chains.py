@@ -31,11 +31,11 @@ from checker.search.unify import match_atoms_into, match_into
 
 @dataclass(frozen=True, slots=True)
 class Seed:
-    """A clause to start a chain from: premise number ``premise`` (no
-    steps), or the result of the given steps."""
+    """A clause to start a chain from: premise number ``premise`` itself, or
+    the clause ``evidence`` computes from the premises."""
 
     clause: Clause
-    steps: tuple[PrimitiveEvidence, ...] = ()
+    evidence: PrimitiveEvidence | None = None
     premise: int = -1
 
 
@@ -158,14 +158,10 @@ def find_chain(
         heapq.heappush(frontier, (_distance(_profile(clause), goal), len(steps), order, clause, steps, derived, premise))
 
     for seed in seeds:
-        derived: list[Clause] = []
-        for step in seed.steps:
-            result = replay([*premises, *derived], step)
-            if not isinstance(result, Clause):
-                break
-            derived.append(result)
+        if seed.evidence is None:
+            push(seed.clause, (), (), seed.premise)
         else:
-            push(derived[-1] if derived else seed.clause, seed.steps, tuple(derived), seed.premise)
+            push(seed.clause, (seed.evidence,), (seed.clause,), seed.premise)
     expanded = 0
     while frontier and expanded < expansions:
         _, _, _, clause, steps, derived, premise = heapq.heappop(frontier)

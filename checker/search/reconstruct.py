@@ -9,8 +9,9 @@ claim.  Everything returned has been accepted by
 untrusted and can only fail to find evidence.
 
 When the derivation states a parent's bindings, the search runs on the
-stated instances and the evidence returned uses exactly those bindings
-(up to renaming of the variables they introduce).  When nothing is found,
+stated instances, and the evidence returned uses the parent only as that
+instance (or an instance of it, when the stated terms themselves hold
+variables).  When nothing is found,
 the closest candidate tells a prover developer what the nearest inference
 computes, and what differs from the claim.
 """
@@ -107,27 +108,33 @@ class Reconstruction:
 
 
 def _disagreement(stated: Substitution, used: Substitution, premise: Clause) -> str | None:
-    """None when ``used`` agrees with ``stated`` on the premise's stated
-    variables, up to renaming of the variables the stated terms introduce;
-    otherwise the first variable on which they differ, in words."""
+    """None when ``used`` is an instance of ``stated`` on the premise's
+    variables (used = rho after stated, for one rho); otherwise the first
+    variable on which they part, in words."""
     variables = premise.variables()
-    compared = [var for var in sorted(variables, key=lambda v: v.symbol) if var in stated.mapping]
+    bound = [var for var in sorted(variables, key=lambda v: v.symbol) if var in stated.mapping]
     introduced: set[Term] = set()
-    for var in compared:
+    for var in bound:
         introduced |= variables_of(stated(var))
-    compared += sorted((introduced & variables) - set(compared), key=lambda v: v.symbol)
-    renaming: dict[Term, Term] = {}
+    # a premise variable the stated terms mention must itself stay consistent
+    compared = bound + sorted((introduced & variables) - set(bound), key=lambda v: v.symbol)
+    rho: dict[Term, Term] = {}
     for var in compared:
-        extended = match_into(stated(var), used(var), renaming)
-        images = list(extended.values()) if extended is not None else []
-        if extended is None or not all(t.is_variable for t in images) or len(set(images)) != len(images):
-            return f"it states {var} -> {stated(var)}, the inference uses {var} -> {used(var)}"
-        renaming = extended
+        extended = match_into(stated(var), used(var), rho)
+        if extended is None:
+            says = ", ".join(f"{v} -> {stated(v)}" for v in bound)
+            does = ", ".join(f"{v} -> {used(v)}" for v in compared)
+            return f"it states {says}, the inference uses {does}"
+        rho = extended
     return None
 
 
-def _violation(premises: Sequence[Clause], stated: Sequence[Substitution | None], evidence: Evidence) -> str | None:
-    """Why the evidence does not use the stated bindings, or None if it does."""
+def stated_disagreement(
+    premises: Sequence[Clause], stated: Sequence[Substitution | None], evidence: Evidence
+) -> str | None:
+    """Why the evidence does not use the premises as the stated bindings
+    say, or None if it does.  Every inference that uses a premise with
+    stated bindings is checked."""
     if isinstance(evidence, Refutation):
         steps = evidence.chain.steps
     elif isinstance(evidence, Chain):
@@ -207,13 +214,14 @@ class _Search:
     limits: SearchLimits
     searched: Sequence[Clause]  # the premises, or their stated instances
     best: tuple[int, int, Attempt] | None = None
-    stated_wrong: tuple[str, Attempt] | None = None
     seeds: list[Seed] = field(default_factory=list)
 
     def accept(self, evidence: Evidence, theta: Substitution) -> bool:
-        if any(given is not None for given in self.stated) and _violation(self.premises, self.stated, evidence):
-            return False
-        return check_clause_step(self.premises, self.claimed, evidence, theta) is None
+        """The last word: stated bindings honoured, and the kernel agrees."""
+        return (
+            stated_disagreement(self.premises, self.stated, evidence) is None
+            and check_clause_step(self.premises, self.claimed, evidence, theta) is None
+        )
 
     def lift(self, evidence: PrimitiveEvidence, theta: Substitution) -> tuple[PrimitiveEvidence, Substitution]:
         """Evidence on the premises themselves.  An instantiation takes theta
@@ -235,20 +243,17 @@ class _Search:
                 evidence, theta = self.lift(attempt.evidence, theta)
                 if self.accept(evidence, theta):
                     return Reconstruction(evidence, theta, None, describe(self.premises, evidence))
-                wrong = _violation(self.premises, self.stated, evidence)
-                if wrong is not None and self.stated_wrong is None:
-                    self.stated_wrong = (wrong, attempt)
                 continue
             missing, extra = _difference(attempt.computed, self.claimed)
             near.append((len(missing) + len(extra), number, attempt))
         near.sort(key=lambda item: item[:2])
         if near:
             self.best = near[0]
-        self.seeds = [Seed(a.computed, (a.evidence,)) for _, _, a in near[: self.limits.chain_seeds]]
+        self.seeds = [Seed(a.computed, a.evidence) for _, _, a in near[: self.limits.chain_seeds]]
         return None
 
     def chain(self) -> Reconstruction | None:
-        seeds = [Seed(clause, (), index) for index, clause in enumerate(self.searched)] + self.seeds
+        seeds = [Seed(clause, None, index) for index, clause in enumerate(self.searched)] + self.seeds
         found = find_chain(self.searched, self.claimed, seeds, self.limits.rewrite_steps, self.limits.subsumption_nodes)
         if found is None:
             return None
@@ -257,7 +262,7 @@ class _Search:
             chain = _prefixed(chain, self.stated, len(self.premises), 0)
         if not self.accept(chain, theta):
             return None
-        return Reconstruction(chain, theta, None, f"chain of {len(chain.steps)} rewrites and literal deletions")
+        return Reconstruction(chain, theta, None, f"chain of {len(chain.steps)} inferences")
 
     def refutation(self) -> Reconstruction | None:
         negation = negated_claim(self.premises, self.claimed)
@@ -279,10 +284,6 @@ class _Search:
         )
 
     def closest(self) -> Candidate | None:
-        if self.stated_wrong is not None:
-            wrong, attempt = self.stated_wrong
-            evidence, _ = self.lift(attempt.evidence, IDENTITY)
-            return Candidate(describe(self.premises, evidence), attempt.computed, self.claimed, (), (), wrong)
         if self.best is None:
             return None
         attempt = self.best[2]
@@ -328,15 +329,15 @@ def reconstruct(
     free = _run(_Search(premises, claimed, [None] * len(premises), limits, premises), rule_hint)
     if free.evidence is None:
         return found
-    wrong = _violation(premises, given, free.evidence) or "the stated bindings do not fit the inference"
+    wrong = stated_disagreement(premises, given, free.evidence) or "the stated bindings do not fit the inference"
     computed = _computed(premises, claimed, free.evidence, free.theta)
     candidate = Candidate(free.description, computed, claimed, (), (), wrong)
     return Reconstruction(None, IDENTITY, candidate)
 
 
 def _computed(premises: Sequence[Clause], claimed: Clause, evidence: Evidence, theta: Substitution) -> Clause:
-    """The clause the (accepted) evidence computes, as the claim saw it."""
+    """The clause accepted evidence computes, as the claim sees it (for a
+    refutation, the claim itself: that is what it shows to follow)."""
     if isinstance(evidence, Refutation):
         return claimed
-    result = replay(premises, evidence)
-    return result.instance(theta) if isinstance(result, Clause) else claimed
+    return replay(premises, evidence).instance(theta)

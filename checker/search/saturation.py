@@ -35,7 +35,9 @@ def _weight(clause: Clause) -> int:
     return sum(sum(1 for _ in subterms(literal.atom)) for literal in clause.literal_set)
 
 
-def _tautology(clause: Clause) -> bool:
+def is_tautology(clause: Clause) -> bool:
+    """Whether the clause holds in every interpretation with equality, by
+    a complementary pair or an ``s = s`` literal."""
     for literal in clause.literal_set:
         if literal.positive and is_equality(literal.atom) and literal.atom.arguments[0] is literal.atom.arguments[1]:
             return True
@@ -86,7 +88,7 @@ def refute(
     for index, clause in enumerate(store):
         if clause.is_empty:
             return Chain((Instantiation(index),))
-    passive: list[tuple[int, int]] = [(_weight(c), i) for i, c in enumerate(store) if not _tautology(c)]
+    passive: list[tuple[int, int]] = [(_weight(c), i) for i, c in enumerate(store) if not is_tautology(c)]
     heapq.heapify(passive)
     seen = {clause.literal_set for clause in store}
     active: list[int] = []
@@ -100,7 +102,7 @@ def refute(
         active.append(given)
         for attempt in _inferences(store, given, active):
             computed = attempt.computed
-            if computed.literal_set in seen or _tautology(computed):
+            if computed.literal_set in seen or is_tautology(computed):
                 continue
             seen.add(computed.literal_set)
             store.append(computed)

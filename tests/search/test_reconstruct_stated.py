@@ -13,7 +13,7 @@ from checker.kernel.clauses import Clause
 from checker.kernel.rules import Chain, Instantiation, Refutation, Resolution, check_clause_step
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import application, variable
-from checker.search.reconstruct import reconstruct
+from checker.search.reconstruct import reconstruct, stated_disagreement
 
 X, Y, Z = variable("X"), variable("Y"), variable("Z")
 ana, ben, vault = application("ana"), application("ben"), application("vault")
@@ -98,3 +98,29 @@ def test_generated_resolutions_with_their_true_bindings_stated(rng):
     again = reconstruct(step.premises, step.claimed, "resolution", stated=stated)
     assert again.evidence is not None
     assert check_clause_step(step.premises, step.claimed, again.evidence, again.theta) is None
+
+
+def test_stated_disagreement_compares_every_use_of_a_stated_premise():
+    premises = [Clause([P("badge", X, Y)]), Clause([N("badge", ana, vault)])]
+    stated = [Substitution({X: ana}), None]
+    right = Resolution(0, 0, 1, 0, Substitution({X: ana, Y: vault}))
+    wrong = Resolution(0, 0, 1, 0, Substitution({X: ben, Y: vault}))
+    assert stated_disagreement(premises, stated, right) is None
+    message = stated_disagreement(premises, stated, wrong)
+    assert message == "the stated bindings of premise 0 are wrong: it states X -> ana, the inference uses X -> ben"
+    # inside chains and refutations too, but only where the premise itself is used
+    assert stated_disagreement(premises, stated, Chain((right, wrong))) == message
+    assert stated_disagreement(premises, stated, Refutation(Chain((wrong,)))) == message
+    assert stated_disagreement(premises, stated, Chain((Instantiation(0, Substitution({X: ana})), Instantiation(2)))) is None
+    assert stated_disagreement(premises, [None, None], wrong) is None
+
+
+def test_stated_terms_with_variables_admit_instances_but_not_inconsistency():
+    premises = [Clause([P("badge", X, Y)])]
+    # X -> W: any instance of W will do
+    assert stated_disagreement(premises, [Substitution({X: variable("W")})], Instantiation(0, Substitution({X: ana}))) is None
+    # X -> Y ties X to the premise's own Y: using X -> ana while Y stays Y breaks the tie
+    tied = [Substitution({X: Y})]
+    assert stated_disagreement(premises, tied, Instantiation(0, Substitution({X: ana, Y: ana}))) is None
+    message = stated_disagreement(premises, tied, Instantiation(0, Substitution({X: ana})))
+    assert message.endswith("it states X -> Y, the inference uses X -> ana, Y -> Y")
