@@ -301,7 +301,7 @@ def _evidence_fields(evidence: type) -> tuple[list[str], list[str]]:
 
 def _primitive(
     record: _Record, value: Mapping[str, object], rule: str, where: str, required: Collection[str], optional: Collection[str]
-):
+) -> object:
     """The evidence object of a primitive rule; ``required`` and ``optional``
     are the other fields allowed alongside the evidence fields."""
     evidence = PRIMITIVE_RULES[rule]
@@ -322,7 +322,7 @@ def _chain(record: _Record, value: object, field: str) -> Chain:
         where = f"{field}[{number}]"
         inner = _object(record, inner, where)
         rule = inner.get("rule")
-        if rule not in PRIMITIVE_RULES:
+        if not isinstance(rule, str) or rule not in PRIMITIVE_RULES:
             names = ", ".join(f"'{name}'" for name in PRIMITIVE_RULES)
             record.fail(f"field '{where}.rule' must be one of {names}, not {json.dumps(rule)}")
         steps.append(_primitive(record, inner, rule, where + ".", (), ()))

@@ -92,3 +92,16 @@ def test_broken_copy_differs_in_one_step_and_is_refused_there():
     others = [s for s in clause_steps(broken) if s.name != "p1_flow_path"]
     assert all(check_step(broken, s) is None for s in others)
 
+
+
+def test_assay_accepts_the_demo_and_rejects_the_broken_copy_at_its_step():
+    import checker
+
+    report = checker.check(str(DEMO), str(PROBLEM))
+    assert report.verdict == "accepted"
+    assert {result.outcome for result in report.steps} == {"checked"}
+    broken = checker.check(str(BROKEN), str(PROBLEM))
+    assert broken.verdict == "rejected"
+    failed = [result for result in broken.steps if result.outcome != "checked"]
+    assert [(result.name, result.outcome) for result in failed] == [("p1_flow_path", "failed")]
+    assert failed[0].location.line == 14

@@ -253,6 +253,13 @@ BAD_RECORDS = {
         1,
         True,
     ),
+    "inner rule not a name": (
+        _record(inference={"rule": "chain", "steps": [{"rule": ["resolution"]}], "left": None,
+                           "left_literal": None, "right": None, "right_literal": None}),
+        "field 'inference.steps[0].rule' must be one of",
+        1,
+        True,
+    ),
     "bad inner evidence": (
         _record(inference={"rule": "chain", "steps": [{"rule": "instantiation", "premise": "0"}], "left": None,
                            "left_literal": None, "right": None, "right_literal": None}),
