@@ -24,7 +24,7 @@ from dataclasses import dataclass
 from checker.kernel.clauses import Clause, is_equality
 from checker.kernel.rules import Chain, EqualityResolution, Paramodulation, PrimitiveEvidence, Resolution, replay
 from checker.kernel.substitution import IDENTITY, Substitution
-from checker.kernel.terms import subterms
+from checker.kernel.terms import subterms, variable
 from checker.search.subsumption import find_theta, find_theta_into
 from checker.search.unify import match_atoms_into, match_into
 
@@ -44,11 +44,17 @@ def _index(premises: Sequence[Clause], steps: tuple[PrimitiveEvidence, ...], pre
     return len(premises) + len(steps) - 1 if steps else premise
 
 
+_ANY = variable("_")
+
+
 def _profile(clause: Clause) -> Counter:
+    """The clause's subterms counted, variables all read as one (the claim
+    names its variables differently from the premises)."""
+    blind = Substitution({var: _ANY for var in clause.variables()})
     profile: Counter = Counter()
     for literal in clause.literal_set:
         profile[literal.positive] += 1
-        for _, term in subterms(literal.atom):
+        for _, term in subterms(blind(literal.atom)):
             profile[term] += 1
     return profile
 

@@ -59,7 +59,7 @@ class SearchLimits:
     """single-inference candidates examined"""
     subsumption_nodes: int = 2000
     """matching attempts per subsumption test"""
-    rewrite_steps: int = 200
+    rewrite_steps: int = 600
     """clauses expanded by the rewriting / deletion chain search"""
     chain_seeds: int = 8
     """nearest single-inference results also used as chain starts"""

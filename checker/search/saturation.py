@@ -5,7 +5,10 @@ claimed clause may still follow from the premises by a short proof.  This
 is the given-clause loop: pick the lightest unprocessed clause, drop it if
 it is a tautology or subsumed by a processed one, otherwise infer
 everything it yields with the processed clauses (binary resolution,
-factoring, paramodulation, equality resolution and factoring).  Every
+factoring, paramodulation, equality resolution and factoring), dropping
+clauses much heavier than any input (a short proof of one step rarely
+needs them, and without this a self-resolving clause grows its terms
+without end, so that a count bound would no longer bound time).  Every
 derived clause remembers its kernel evidence, so when the empty clause
 appears only its ancestors are kept and re-indexed into a kernel
 :class:`~checker.kernel.rules.Chain`.  The bounds are counts, never time.
@@ -31,7 +34,12 @@ from checker.search.evidence import (
 )
 from checker.search.subsumption import find_theta
 
+WEIGHT_MARGIN = 8
+"""Symbols a derived clause may have beyond twice the heaviest input."""
+
+
 def _weight(clause: Clause) -> int:
+    """The number of symbol occurrences."""
     return sum(sum(1 for _ in subterms(literal.atom)) for literal in clause.literal_set)
 
 
@@ -89,6 +97,8 @@ def refute(
         if clause.is_empty:
             return Chain((Instantiation(index),))
     passive: list[tuple[int, int]] = [(_weight(c), i) for i, c in enumerate(store) if not is_tautology(c)]
+    heaviest = max((weight for weight, _ in passive), default=0)
+    max_weight = 2 * heaviest + WEIGHT_MARGIN
     heapq.heapify(passive)
     seen = {clause.literal_set for clause in store}
     active: list[int] = []
@@ -102,7 +112,8 @@ def refute(
         active.append(given)
         for attempt in _inferences(store, given, active):
             computed = attempt.computed
-            if computed.literal_set in seen or is_tautology(computed):
+            weight = _weight(computed)
+            if weight > max_weight or computed.literal_set in seen or is_tautology(computed):
                 continue
             seen.add(computed.literal_set)
             store.append(computed)
@@ -112,5 +123,5 @@ def refute(
             generated += 1
             if generated >= max_generated:
                 return None
-            heapq.heappush(passive, (_weight(computed), len(store) - 1))
+            heapq.heappush(passive, (weight, len(store) - 1))
     return None

@@ -233,7 +233,9 @@ def equality_factoring_step(builder: Builder) -> Step:
 
 def rewriting_chain_step(builder: Builder, rewrites: int | None = None) -> Step:
     """A clause rewritten several times, each time by a new unit equation
-    built to match a subterm of the clause as it then is."""
+    built to match a subterm of the clause as it then is.  As in a prover's
+    demodulation, each rewrite makes the clause smaller: a compound subterm
+    becomes a constant."""
     rng = builder.rng
     count = rewrites if rewrites is not None else rng.randint(2, 4)
     clause = Clause([Literal(rng.random() < 0.5, builder.atom(depth=3)), *builder.literals(1)])
@@ -241,7 +243,7 @@ def rewriting_chain_step(builder: Builder, rewrites: int | None = None) -> Step:
     current = clause
     for _ in range(count):
         positions = [
-            (m, p, t) for m, lit in enumerate(current.literals) for p, t in subterms(lit.atom) if p and not t.is_variable
+            (m, p, t) for m, lit in enumerate(current.literals) for p, t in subterms(lit.atom) if p and t.arguments
         ]
         if not positions:
             break
