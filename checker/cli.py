@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import json
 import sys
+from dataclasses import fields, replace
 import traceback
 
 import click
@@ -38,6 +39,23 @@ class _Group(click.Group):
             sys.exit(EXIT_CODES[INTERNAL_ERROR])
 
 
+LIMIT_NAMES = tuple(field.name for field in fields(SearchLimits))
+
+
+def _limits(settings: tuple[str, ...]) -> SearchLimits:
+    """The search bounds with each NAME=COUNT setting applied."""
+    changes = {}
+    for setting in settings:
+        name, _, count = setting.partition("=")
+        if name not in LIMIT_NAMES or not count.isdigit() or int(count) < 1:
+            raise click.BadParameter(
+                f"`{setting}`: expected NAME=COUNT with NAME one of {', '.join(LIMIT_NAMES)} and COUNT a positive whole number",
+                param_hint="--search-limit",
+            )
+        changes[name] = int(count)
+    return replace(DEFAULT_LIMITS, **changes)
+
+
 @click.group(cls=_Group)
 @click.version_option(package_name="assay")
 def main() -> None:
@@ -51,19 +69,20 @@ def main() -> None:
               help="Where to look for include(...) files (also $TPTP).")
 @click.option("--report", "report_format", type=click.Choice(["text", "json"]), default="text", show_default=True)
 @click.option("--all-steps", is_flag=True, help="List every step in the text report, not only the first failure.")
-@click.option("--search-limit", type=click.IntRange(min=1), default=DEFAULT_LIMITS.scale, show_default=True,
-              help="Bound on the evidence search per step (a count, not a time).")
+@click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
+              help="Raise or lower one bound of the per-step evidence search (counts, never time): "
+              + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")
 @click.option("--record", "record_path", type=click.Path(dir_okay=False, writable=True),
               help="Also write a check record (JSON with file hashes and scope statement) for a safety case.")
-def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limit, record_path) -> None:
+def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limits, record_path) -> None:
     """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
-    limits = SearchLimits.scaled(search_limit)
+    limits = _limits(search_limits)
     reports: list[Report] = [check(path, problem, include_dirs, limits) for path in certificates]
     if record_path:
         with open(record_path, "w", encoding="utf-8") as out:
-            json.dump(check_record(reports, search_limit), out, indent=2)
+            json.dump(check_record(reports, limits), out, indent=2)
     if report_format == "json":
         click.echo(render_json(reports))
     else:

@@ -58,15 +58,15 @@ def check_consequence(
         failure = check_entailment(premises, conclusion, chain)
         if failure is None:
             return _result(step, RECONSTRUCTED, f"{what}: kernel replayed a refutation of premises and negated conclusion ({len(chain.steps)} inferences)")
-    model = find_countermodel(list(premises), conclusion, max_domain=limits.model_domain)
+    model = find_countermodel(list(premises), conclusion)
     if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
         return _result(
             step,
             REFUTED,
             "counter-model: the premises are true and the conclusion false",
-            render_countermodel(model, list(premises), conclusion),
+            render_countermodel(model, list(premises), conclusion).splitlines(),
         )
-    return _result(step, UNPROVEN, f"not shown to follow within the search bounds")
+    return _result(step, UNPROVEN, "not shown to follow within the search bounds")
 
 
 def check_introduction(

@@ -8,12 +8,14 @@ it states plainly what a checked proof does and does not show.
 from __future__ import annotations
 
 import hashlib
+from dataclasses import asdict
 import platform
 from datetime import datetime, timezone
 from importlib.metadata import PackageNotFoundError, version
 
 from checker.outcomes import Report
 from checker.report import report_json
+from checker.search.reconstruct import SearchLimits
 
 SCOPE_STATEMENT = (
     "A checked proof shows that the conclusion follows from the axioms as written in the problem file "
@@ -40,14 +42,14 @@ def _assay_version() -> str:
         return "unknown"
 
 
-def check_record(reports: list[Report], search_limit: int) -> dict:
+def check_record(reports: list[Report], limits: SearchLimits) -> dict:
     return {
         "record": "assay check record",
         "scope": SCOPE_STATEMENT,
         "assay_version": _assay_version(),
         "python": platform.python_version(),
         "checked_at": datetime.now(timezone.utc).isoformat(timespec="seconds"),
-        "search_limit": search_limit,
+        "search_limits": asdict(limits),
         "files": [
             {
                 "certificate": report.path,

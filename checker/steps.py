@@ -20,7 +20,7 @@ from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
 from checker.plan import Step
-from checker.search.reconstruct import SearchLimits, reconstruct
+from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
 from formats.derivation import Statement
 
 # TPTP statuses (SZS ontology) under which the conclusion is a logical
@@ -39,6 +39,23 @@ class StepContext:
 def _result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
     assert step.inference is not None
     return StepResult(step.name, outcome, step.inference.rule, message, step.location, tuple(details))
+
+
+def closest_lines(candidate: Candidate | None) -> tuple[str, ...]:
+    """The nearest inference the search tried, as a prover developer needs it."""
+    if candidate is None:
+        return ()
+    lines = [
+        f"closest candidate: {candidate.description}",
+        f"computed: {candidate.computed}",
+        f"claimed:  {candidate.claimed}",
+    ]
+    if candidate.missing:
+        lines.append("produced but not claimed: " + ", ".join(f"`{lit}`" for lit in candidate.missing))
+    if candidate.extra:
+        lines.append("claimed but not produced: " + ", ".join(f"`{lit}`" for lit in candidate.extra))
+    lines.append(f"kernel: {candidate.message}")
+    return tuple(lines)
 
 
 def check_inference(step: Step, parents: Sequence[Statement | None], context: StepContext) -> StepResult:
@@ -80,6 +97,5 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
             return _result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
-        details = () if found.closest is None else tuple(found.closest.lines())
-        return _result(step, UNPROVEN, "no evidence found within the search bounds", details)
+        return _result(step, UNPROVEN, "no evidence found within the search bounds", closest_lines(found.closest))
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)

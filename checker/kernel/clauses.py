@@ -17,7 +17,7 @@ EQUALITY = "="
 
 
 def is_equality(atom: Term) -> bool:
-    return atom.symbol == EQUALITY and atom.arity == 2 and not atom.is_variable
+    return atom.arity == 2 and atom.symbol == EQUALITY
 
 
 class Literal:
@@ -26,6 +26,9 @@ class Literal:
     __slots__ = ("positive", "atom", "_key")
 
     def __init__(self, positive: bool, atom: Term):
+        if atom.is_variable:
+            # Not first-order: a substitution could turn it into any atom.
+            raise ValueError(f"a variable is not an atom: {atom}")
         self.positive = positive
         self.atom = atom
         if is_equality(atom):

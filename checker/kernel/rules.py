@@ -17,8 +17,8 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from checker.kernel.clauses import Clause, Literal, is_equality
-from checker.kernel.failure import Failure, describe_position
+from checker.kernel.clauses import EQUALITY, Clause, Literal, is_equality
+from checker.kernel.failure import Failure, describe_position, quote
 from checker.kernel.substitution import IDENTITY, Substitution
 from checker.kernel.terms import Position, Term, application, first_difference, replace_at, subterm_at
 
@@ -108,18 +108,19 @@ def _literal(clause: Clause, index: int, role: str) -> Literal | Failure:
     if not 0 <= index < len(clause.literals):
         return Failure(
             "literal_out_of_range",
-            f"{role} literal {index} does not exist in `{clause}` ({len(clause.literals)} literals)",
+            f"{role} literal {index} does not exist in {quote(clause)} ({len(clause.literals)} literals)",
         )
     return clause.literals[index]
 
 
-def _clash(role: str, left: Term, right: Term, why: str) -> Failure:
+def _clash(reason: str, role: str, left: Term, right: Term, why: str) -> Failure:
     difference = first_difference(left, right)
     assert difference is not None  # callers only report terms that differ
     position, a, b = difference
     return Failure(
-        "terms_differ",
-        f"{role}: `{left}` and `{right}` differ at position {describe_position(position)}: `{a}` vs `{b}` ({why})",
+        reason,
+        f"{role}: {quote(left)} and {quote(right)} differ at position {describe_position(position)}: "
+        f"{quote(a)} vs {quote(b)} ({why})",
     )
 
 
@@ -127,6 +128,16 @@ def _atoms_match(left: Term, right: Term) -> bool:
     if left is right:
         return True
     return is_equality(left) and is_equality(right) and left.arguments == right.arguments[::-1]
+
+
+def _facing(left: Term, right: Term) -> Term:
+    """``right``, turned round when both are equations and only the turned
+    one shares a side with ``left``, so that a reported difference is the
+    real one rather than an artefact of how the equation was written."""
+    if is_equality(left) and is_equality(right) and right.arguments[0] is not left.arguments[0]:
+        if right.arguments[1] is left.arguments[0] or right.arguments[0] is left.arguments[1]:
+            return application(right.symbol, right.arguments[::-1])
+    return right
 
 
 def instantiate(premises: Sequence[Clause], evidence: Instantiation) -> Clause | Failure:
@@ -149,27 +160,27 @@ def resolve(premises: Sequence[Clause], evidence: Resolution) -> Clause | Failur
     right_literal = _literal(right, evidence.right_literal, "right")
     if isinstance(right_literal, Failure):
         return right_literal
+    literals = (
+        f"left literal {evidence.left_literal} {quote(left_literal)} and "
+        f"right literal {evidence.right_literal} {quote(right_literal)}"
+    )
+    if left_literal.positive == right_literal.positive:
+        sign = "positive" if left_literal.positive else "negative"
+        return Failure("same_sign", f"literals not complementary: {literals} are both {sign}")
     a = left_literal.instance(evidence.left_substitution)
     b = right_literal.instance(evidence.right_substitution)
-    if a.positive == b.positive:
-        sign = "positive" if a.positive else "negative"
-        return Failure(
-            "same_sign",
-            f"literals not complementary: left literal {evidence.left_literal} `{left_literal}` and "
-            f"right literal {evidence.right_literal} `{right_literal}` are both {sign}",
-        )
     if not _atoms_match(a.atom, b.atom):
         return _clash(
-            f"literals not complementary: left literal {evidence.left_literal} `{left_literal}` and "
-            f"right literal {evidence.right_literal} `{right_literal}` after substitution",
+            "atoms_differ",
+            f"literals not complementary: {literals} after substitution",
             a.atom,
-            b.atom,
+            _facing(a.atom, b.atom),
             "the unifier does not make the atoms equal",
         )
-    left_rest = left.instance(evidence.left_substitution).literal_set - {a}
-    right_rest = right.instance(evidence.right_substitution).literal_set - {b}
-    kept = [lit for lit in left.instance(evidence.left_substitution).literals if lit in left_rest]
-    kept += [lit for lit in right.instance(evidence.right_substitution).literals if lit in right_rest]
+    # Clauses are sets: every literal that the substitution merges into the
+    # resolved one goes with it.
+    kept = [lit for lit in left.instance(evidence.left_substitution).literals if lit != a]
+    kept += [lit for lit in right.instance(evidence.right_substitution).literals if lit != b]
     return Clause(kept)
 
 
@@ -189,33 +200,33 @@ def paramodulate(premises: Sequence[Clause], evidence: Paramodulation) -> Clause
     if not (equation.positive and is_equality(equation.atom)):
         return Failure(
             "not_an_equation",
-            f"equation literal {evidence.equation_literal} `{equation}` is not a positive equality",
+            f"equation literal {evidence.equation_literal} {quote(equation)} is not a positive equality",
         )
     first, second = (evidence.equation_substitution(side) for side in equation.atom.arguments)
     found, replacement = (first, second) if evidence.left_to_right else (second, first)
     target_instance = target.instance(evidence.target_substitution)
     position = tuple(evidence.position)
+    # The root is the atom itself, which is not a term an equation may rewrite.
     subterm = subterm_at(target_instance.atom, position) if position else None
     if subterm is None:
         return Failure(
             "no_such_position",
             f"position {describe_position(position)} is not a term position in target literal "
-            f"{evidence.target_literal} `{target_instance}`",
+            f"{evidence.target_literal} {quote(target_instance)}",
         )
     if subterm is not found:
         return _clash(
+            "subterm_mismatch",
             f"subterm at position {describe_position(position)} of target literal {evidence.target_literal} "
-            f"`{target_instance}` does not match the equation side",
+            f"{quote(target_instance)} does not match the equation side",
             subterm,
             found,
             "subterm vs equation side after substitution",
         )
     rewritten = Literal(target_instance.positive, replace_at(target_instance.atom, position, replacement))
-    equation_instance = equation_clause.instance(evidence.equation_substitution)
-    target_whole = target_clause.instance(evidence.target_substitution)
-    equation_used = Literal(True, application("=", (first, second)))
-    kept = [lit for lit in equation_instance.literals if lit != equation_used]
-    kept += [lit for lit in target_whole.literals if lit != target_instance]
+    equation_used = Literal(True, application(EQUALITY, (first, second)))
+    kept = [lit for lit in equation_clause.instance(evidence.equation_substitution).literals if lit != equation_used]
+    kept += [lit for lit in target_clause.instance(evidence.target_substitution).literals if lit != target_instance]
     kept.append(rewritten)
     return Clause(kept)
 
@@ -228,13 +239,14 @@ def resolve_equality(premises: Sequence[Clause], evidence: EqualityResolution) -
     if isinstance(literal, Failure):
         return literal
     if literal.positive or not is_equality(literal.atom):
-        return Failure("not_a_disequality", f"literal {evidence.literal} `{literal}` is not a disequality")
+        return Failure("not_a_disequality", f"literal {evidence.literal} {quote(literal)} is not a disequality")
     instance = literal.instance(evidence.substitution)
     left, right = instance.atom.arguments
     if left is not right:
-        return _clash(f"disequality literal {evidence.literal} `{literal}`", left, right, "sides after substitution")
-    whole = premise.instance(evidence.substitution)
-    return Clause(lit for lit in whole.literals if lit != instance)
+        return _clash(
+            "sides_differ", f"disequality literal {evidence.literal} {quote(literal)}", left, right, "sides after substitution"
+        )
+    return Clause(lit for lit in premise.instance(evidence.substitution).literals if lit != instance)
 
 
 def factor_equality(premises: Sequence[Clause], evidence: EqualityFactoring) -> Clause | Failure:
@@ -249,17 +261,21 @@ def factor_equality(premises: Sequence[Clause], evidence: EqualityFactoring) -> 
         if isinstance(literal, Failure):
             return literal
         if not (literal.positive and is_equality(literal.atom)):
-            return Failure("not_an_equation", f"literal {index} `{literal}` is not a positive equality")
+            return Failure("not_an_equation", f"literal {index} {quote(literal)} is not a positive equality")
         s, t = (evidence.substitution(side) for side in literal.atom.arguments)
         sides.append((t, s) if reversed_ else (s, t))
     (s, t), (s2, t2) = sides
     if s is not s2:
         return _clash(
-            f"equality factoring of literals {evidence.literal} and {evidence.other_literal}", s, s2, "left sides after substitution"
+            "factored_sides_differ",
+            f"equality factoring of literals {evidence.literal} {quote(premise.literals[evidence.literal])} and "
+            f"{evidence.other_literal} {quote(premise.literals[evidence.other_literal])}",
+            s,
+            s2,
+            "the sides to be identified, after substitution",
         )
-    whole = premise.instance(evidence.substitution)
-    kept = [lit for i, lit in enumerate(whole.literals) if i != evidence.literal]
-    kept.append(Literal(False, application("=", (t, t2))))
+    kept = [lit for i, lit in enumerate(premise.instance(evidence.substitution).literals) if i != evidence.literal]
+    kept.append(Literal(False, application(EQUALITY, (t, t2))))
     return Clause(kept)
 
 
@@ -273,17 +289,24 @@ _RULES = {
 
 
 def replay(premises: Sequence[Clause], evidence: PrimitiveEvidence | Chain) -> Clause | Failure:
-    """The clause the evidence derives from the premises, or why it does not."""
-    if isinstance(evidence, Chain):
-        if not evidence.steps:
-            return Failure("empty_chain", "a chain of inferences needs at least one inference")
-        available = list(premises)
-        for number, inner in enumerate(evidence.steps, start=1):
-            result = replay(available, inner)
-            if isinstance(result, Failure):
-                return Failure(result.reason, f"inference {number} of {len(evidence.steps)}: {result.message}")
-            available.append(result)
-        return available[-1]
+    """The clause the evidence derives from the premises, or why it does not.
+
+    A chain's inferences must be primitive (no chains inside chains), so
+    replay never recurses however the evidence is nested."""
+    if not isinstance(evidence, Chain):
+        return _replay_primitive(premises, evidence)
+    if not evidence.steps:
+        return Failure("empty_chain", "a chain of inferences needs at least one inference")
+    available = list(premises)
+    for number, inner in enumerate(evidence.steps, start=1):
+        result = _replay_primitive(available, inner)
+        if isinstance(result, Failure):
+            return Failure(result.reason, f"inference {number} of {len(evidence.steps)}: {result.message}")
+        available.append(result)
+    return available[-1]
+
+
+def _replay_primitive(premises: Sequence[Clause], evidence: PrimitiveEvidence) -> Clause | Failure:
     rule = _RULES.get(type(evidence))
     if rule is None:
         return Failure("unknown_evidence", f"no primitive rule takes evidence of type {type(evidence).__name__}")
@@ -320,17 +343,19 @@ def negated_claim(premises: Sequence[Clause], claimed: Clause) -> list[Clause]:
 
 def check_conclusion(computed: Clause, claimed: Clause, theta: Substitution = IDENTITY) -> Failure | None:
     """None when theta(computed) ⊆ claimed; otherwise the literals that the
-    claimed clause lacks (and, to help, those it has that were not produced)."""
+    claimed clause lacks (and, to help, those it has that were not produced:
+    extra claimed literals alone are a harmless weakening, never a failure)."""
     produced = computed.instance(theta)
     missing = [lit for lit in produced.literals if lit not in claimed.literal_set]
     if not missing:
         return None
     extra = [lit for lit in claimed.literals if lit not in produced.literal_set]
-    message = "computed `{}`, claimed `{}`: produced but missing from the claimed clause: {}".format(
-        produced, claimed, ", ".join(f"`{lit}`" for lit in dict.fromkeys(missing))
+    message = (
+        f"computed {quote(produced)}, claimed {quote(claimed)}: produced but missing from the claimed clause: "
+        + ", ".join(quote(lit) for lit in dict.fromkeys(missing))
     )
     if extra:
-        message += "; claimed but not produced: " + ", ".join(f"`{lit}`" for lit in extra)
+        message += "; claimed but not produced: " + ", ".join(quote(lit) for lit in dict.fromkeys(extra))
     return Failure("missing_from_claimed", message)
 
 
@@ -345,9 +370,9 @@ def check_clause_step(
     if isinstance(evidence, Refutation):
         computed = replay([*premises, *negated_claim(premises, claimed)], evidence.chain)
         if isinstance(computed, Failure):
-            return computed
+            return Failure(computed.reason, f"refuting the negated claim: {computed.message}")
         if not computed.is_empty:
-            return Failure("refutation_incomplete", f"the refutation ends in `{computed}`, not the empty clause")
+            return Failure("refutation_incomplete", f"the refutation ends in {quote(computed)}, not the empty clause")
         return None
     computed = replay(premises, evidence)
     if isinstance(computed, Failure):

@@ -26,9 +26,9 @@ class Term:
     ground: bool
 
     def __reduce__(self):
-        if self.is_variable:
-            return (variable, (self.symbol,))
-        return (application, (self.symbol, self.arguments))
+        # Flat, so that pickling (worker processes) and copying never recurse
+        # through a deep term; rebuilding goes through the hash-consing table.
+        return (_from_flat, (_flat(self),))
 
     def __repr__(self) -> str:
         return f"Term({render(self)!r})"
@@ -69,8 +69,39 @@ def application(symbol: str, arguments: tuple[Term, ...] = ()) -> Term:
     return term if term is not None else _make(key, symbol, arguments, False)
 
 
+def _flat(term: Term) -> tuple[tuple[bool, str, tuple[int, ...]], ...]:
+    """The distinct subterms of ``term``, innermost first, each as
+    (is_variable, symbol, indices of its arguments in this list)."""
+    index: dict[Term, int] = {}
+    entries: list[tuple[bool, str, tuple[int, ...]]] = []
+    stack = [term]
+    while stack:
+        current = stack[-1]
+        if current in index:
+            stack.pop()
+            continue
+        pending = [a for a in current.arguments if a not in index]
+        if pending:
+            stack.extend(pending)
+            continue
+        stack.pop()
+        index[current] = len(entries)
+        entries.append((current.is_variable, current.symbol, tuple(index[a] for a in current.arguments)))
+    return tuple(entries)
+
+
+def _from_flat(entries: tuple[tuple[bool, str, tuple[int, ...]], ...]) -> Term:
+    built: list[Term] = []
+    for is_variable, symbol, arguments in entries:
+        built.append(variable(symbol) if is_variable else application(symbol, tuple(built[i] for i in arguments)))
+    return built[-1]
+
+
 def subterms(term: Term) -> Iterator[tuple[Position, Term]]:
-    """Every subterm with its position, outermost first, left to right."""
+    """Every subterm with its position, outermost first, left to right.
+
+    Each position is a fresh tuple, so on a deep term this costs size times
+    depth; the rules themselves only ever walk one given position."""
     stack: list[tuple[Position, Term]] = [((), term)]
     while stack:
         position, current = stack.pop()
@@ -90,10 +121,15 @@ def subterm_at(term: Term, position: Position) -> Term | None:
 
 
 def replace_at(term: Term, position: Position, replacement: Term) -> Term:
-    """``term`` with the subterm at ``position`` replaced; the position must exist."""
+    """``term`` with the subterm at ``position`` replaced.
+
+    A position the term does not have is a caller's bug (check it with
+    :func:`subterm_at` first), so it raises instead of guessing."""
     path = []
     current = term
     for index in position:
+        if not 1 <= index <= current.arity:
+            raise ValueError(f"position {position} is not in {render(term)}")
         path.append((current, index))
         current = current.arguments[index - 1]
     result = replacement
@@ -157,15 +193,22 @@ def render(term: Term) -> str:
 
 
 def first_difference(left: Term, right: Term) -> tuple[Position, Term, Term] | None:
-    """The outermost-leftmost position where two terms differ, with the two
-    subterms found there; None when they are the same term."""
-    stack: list[tuple[Position, Term, Term]] = [((), left, right)]
+    """The first position, in left-to-right preorder, where two terms differ
+    (so no position above it differs), with the two subterms found there;
+    None when they are the same term."""
+    # A path is kept as a chain (index, parent chain) and only turned into a
+    # tuple once found, so that walking a deep common spine stays linear.
+    stack: list[tuple[tuple | None, Term, Term]] = [(None, left, right)]
     while stack:
-        position, a, b = stack.pop()
+        path, a, b = stack.pop()
         if a is b:
             continue
         if a.is_variable or b.is_variable or a.symbol != b.symbol or a.arity != b.arity:
-            return position, a, b
+            position: list[int] = []
+            while path is not None:
+                index, path = path
+                position.append(index)
+            return tuple(reversed(position)), a, b
         for index in range(a.arity, 0, -1):
-            stack.append((position + (index,), a.arguments[index - 1], b.arguments[index - 1]))
+            stack.append(((index, path), a.arguments[index - 1], b.arguments[index - 1]))
     return None

@@ -13,10 +13,11 @@ from collections.abc import Sequence
 from checker.kernel.entailment import entailment_clauses
 from checker.kernel.formulas import Formula
 from checker.kernel.rules import Chain
+from checker.search.reconstruct import SearchLimits
 from checker.search.saturation import refute
 
 
-def find_entailment(premises: Sequence[Formula], conclusion: Formula, limits) -> Chain | None:
+def find_entailment(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> Chain | None:
     """A refutation of clausify(premises ∧ ¬conclusion), or None within the bounds."""
     clauses = entailment_clauses(list(premises), conclusion)
-    return refute(clauses, limits.saturation_generated, limits.saturation_given, limits.subsumption_nodes)
+    return refute(clauses, limits.saturation_clauses, limits.saturation_given, limits.subsumption_nodes)
