@@ -47,26 +47,29 @@ def check_consequence(
     premises: Sequence[Formula],
     conclusion: Formula,
     limits: SearchLimits,
-    what: str = "follows from its premises",
+    what: str = "claimed to follow from its premises",
 ) -> StepResult:
     """premises ⊨ conclusion, by alpha-equivalence or a kernel-replayed
     refutation; if neither is found, a kernel-confirmed counter-model."""
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
-        return _result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
+        return _result(step, RECONSTRUCTED, "alpha-equivalent to a premise")
     chain = find_entailment(premises, conclusion, limits)
     if chain is not None:
         failure = check_entailment(premises, conclusion, chain)
         if failure is None:
-            return _result(step, RECONSTRUCTED, f"{what}: kernel replayed a refutation of premises and negated conclusion ({len(chain.steps)} inferences)")
+            return _result(
+                step, RECONSTRUCTED,
+                f"kernel replayed a refutation of premises and negated conclusion ({len(chain.steps)} inferences)",
+            )
     model = find_countermodel(list(premises), conclusion)
     if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
         return _result(
             step,
             REFUTED,
-            "counter-model: the premises are true and the conclusion false",
+            f"counter-model: the premises are true and the conclusion false, so the step does not hold ({what})",
             render_countermodel(model, list(premises), conclusion).splitlines(),
         )
-    return _result(step, UNPROVEN, "not shown to follow within the search bounds")
+    return _result(step, UNPROVEN, f"not shown within the search bounds ({what})")
 
 
 def check_introduction(
@@ -95,7 +98,7 @@ def check_introduction(
         axioms.append(axiom)
     introduced = ", ".join(describe_symbol(s) for s in sorted(new))
     return check_consequence(
-        step, [*premises, *axioms], conclusion, limits, what=f"Skolemization introducing {introduced}"
+        step, [*premises, *axioms], conclusion, limits, what=f"Skolemization introducing {introduced}, with its Skolem axioms"
     )
 
 
@@ -124,4 +127,4 @@ def check_negated_conjecture(
         isinstance(claimed, Formula) and alpha_equivalent(negation(conjecture), claimed)
     ):
         return _result(step, RECONSTRUCTED, "the negation of the conjecture")
-    return check_consequence(step, [negated], conclusion, limits, what="follows from the negated conjecture")
+    return check_consequence(step, [negated], conclusion, limits, what="claimed to follow from the negation of the conjecture")

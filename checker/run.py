@@ -17,6 +17,7 @@ from checker.kernel.formulas import FALSUM
 from checker.formula_steps import check_definition_leaf
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
+from checker.nested import check_with_nested
 from checker.outcomes import (
     ACCEPTED,
     FAILED,
@@ -104,21 +105,40 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
     context = StepContext(limits, build_symbol_table(plan.steps, problem))
     statements = {statement.name: statement for statement in document.statements}
     results: list[StepResult] = []
+    nested = _nested_by_outer(plan)
+
+    def check_step(step, parents):
+        return check_inference(step, parents, context)
+
     for step in plan.steps:
-        if step.name in plan.faults:
-            results.append(plan.faults[step.name])
+        if step.statement is None:
+            continue  # a nested record: checked with the step that states it
+        inner = nested.get(step.name, [])
+        faulted = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
+        if faulted:
+            results.extend(faulted)
+        elif inner:
+            results.extend(check_with_nested(step, inner, statements, check_step))
         elif step.is_leaf and _is_definition(step):
             results.append(check_definition_leaf(step, context.symbols))
         elif step.is_leaf:
             results.append(check_leaf(step, problem, limits))
         else:
-            parents = [statements.get(name) for name in step.parents]
-            results.append(check_inference(step, parents, context))
+            results.append(check_step(step, [statements.get(name) for name in step.parents]))
         results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
     results.extend(_whole_derivation(document))
     verdict = verdict_of(results)
     cautions = (NO_PROBLEM_CAUTION,) if problem is None and verdict == ACCEPTED else ()
     return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=cautions)
+
+
+def _nested_by_outer(plan) -> dict[str, list]:
+    """The nested-record steps of each statement, parents first."""
+    found: dict[str, list] = {}
+    for step in plan.steps:
+        if step.statement is None:
+            found.setdefault(step.name.rpartition("/")[0], []).append(step)
+    return found
 
 
 def _is_definition(step) -> bool:

@@ -66,10 +66,11 @@ def skolem_axiom(quantifier: Formula, witnesses: tuple[Term, ...]) -> Formula | 
             )
         missing = free - set(arguments)
         if missing:
+            verb = "occurs" if len(missing) == 1 else "occur"
             return Failure(
                 "missing_dependency",
                 f"Skolem term `{witness}` for `{bound}` does not depend on {_names(missing)}, "
-                f"which occur free in `{quantifier}`",
+                f"which {verb} free in `{quantifier}`",
             )
         if witness.symbol in inside or witness.symbol in seen:
             return Failure(

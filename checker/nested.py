@@ -1,0 +1,161 @@
+"""Steps whose parents include unnamed intermediate steps (nested records).
+
+A prover may write ``inference(r, [...], [inference(s, [...], [a, b]), c])``:
+the inner step's conclusion is never stated.  For clause steps assay
+computes it: each nested step gets the candidate conclusions of single
+kernel-replayed inferences from its parents, and the first combination
+with which the outer step checks settles them, each nested step then
+reported as a step of its own.  When no combination works (or formulas are
+involved), the outer step is checked directly from the named statements
+its nested records rest on, which shows the same claim as a coarser step.
+"""
+
+from __future__ import annotations
+
+import itertools
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+
+from checker.kernel.clauses import Clause
+from checker.outcomes import RECONSTRUCTED, UNPROVEN, StepResult
+from checker.plan import Step
+from checker.search.evidence import candidates, describe
+from checker.search.saturation import premise_references
+from formats.derivation import Statement
+
+CANDIDATES_PER_STEP = 12
+COMBINATIONS = 64
+
+CheckStep = Callable[[Step, Sequence[Statement | None]], StepResult]
+
+
+@dataclass(frozen=True, slots=True)
+class Option:
+    """A candidate conclusion of a nested step: the clause, the inference
+    that computed it, and the options of nested parents it was computed from."""
+
+    content: Clause
+    how: str
+    from_nested: tuple[tuple[str, Option], ...] = ()
+
+
+def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str]]:
+    """Distinct conclusions of single kernel-replayed inferences from
+    ``premises``, those that use every premise first."""
+    using_all: list[tuple[Clause, str]] = []
+    others: list[tuple[Clause, str]] = []
+    seen: set[frozenset] = set()
+    for attempt in itertools.islice(candidates(premises, rule), 20 * CANDIDATES_PER_STEP):
+        if attempt.computed.literal_set in seen:
+            continue
+        seen.add(attempt.computed.literal_set)
+        used = set(premise_references(attempt.evidence))
+        target = using_all if used == set(range(len(premises))) else others
+        target.append((attempt.computed, describe(premises, attempt.evidence)))
+    return (using_all + others)[:CANDIDATES_PER_STEP]
+
+
+def _premise_choices(step: Step, statements: dict[str, Statement], options: dict[str, list[Option]]):
+    """Each way of picking the step's premises: stated ones as they are,
+    nested ones among their options (a bounded number of combinations)."""
+    per_parent: list[list[tuple[Clause, Option | None]]] = []
+    for name in step.parents:
+        if name in options:
+            per_parent.append([(option.content, option) for option in options[name]])
+        elif name in statements:
+            per_parent.append([(statements[name].content, None)])
+        else:
+            return
+    yield from itertools.islice(itertools.product(*per_parent), COMBINATIONS)
+
+
+def _stand_in(step: Step, content: Clause) -> Statement:
+    return Statement(step.name, "plain", "cnf", content, step.location, step.inference)
+
+
+def check_with_nested(
+    outer: Step,
+    nested: Sequence[Step],
+    statements: dict[str, Statement],
+    check_step: CheckStep,
+) -> list[StepResult]:
+    """Results for the nested steps (in order) and then the outer step."""
+    assert outer.statement is not None
+    options: dict[str, list[Option]] = {}
+    for step in nested:  # parents first, as planned
+        gathered: dict[Clause, Option] = {}
+        for choice in _premise_choices(step, statements, options):
+            premises = [content for content, _ in choice]
+            if not all(isinstance(p, Clause) for p in premises):
+                continue
+            picked = tuple((name, option) for name, (_, option) in zip(step.parents, choice) if option is not None)
+            for content, how in _conclusions(premises, step.inference.rule):
+                gathered.setdefault(content, Option(content, how, picked))
+        options[step.name] = list(gathered.values())[:CANDIDATES_PER_STEP]
+
+    by_name = {step.name: step for step in nested}
+    for choice in _premise_choices(outer, statements, options):
+        parents = [
+            _stand_in(by_name[name], content) if option is not None else statements[name]
+            for name, (content, option) in zip(outer.parents, choice)
+        ]
+        result = check_step(outer, parents)
+        if result.outcome == RECONSTRUCTED:
+            picked = {name: option for name, (_, option) in zip(outer.parents, choice) if option is not None}
+            return [*_settled(nested, picked), result]
+    return _coarse(outer, nested, statements, check_step)
+
+
+def _settled(nested: Sequence[Step], picked: dict[str, Option]) -> list[StepResult]:
+    """Results for the nested steps, following the options that were used
+    down to the innermost records."""
+    stack = list(picked.items())
+    while stack:
+        name, option = stack.pop()
+        for inner in option.from_nested:
+            picked.setdefault(*inner)
+            stack.append(inner)
+    return [
+        StepResult(
+            step.name, RECONSTRUCTED, step.inference.rule,
+            f"conclusion not stated; computed `{picked[step.name].content}` by {picked[step.name].how}",
+            step.location,
+        )
+        for step in nested
+    ]
+def _coarse(
+    outer: Step, nested: Sequence[Step], statements: dict[str, Statement], check_step: CheckStep
+) -> list[StepResult]:
+    """Check the outer step from the named statements under its nested records."""
+    names = {step.name for step in nested}
+    by_name = {step.name: step for step in nested}
+    leaves: list[str] = []
+    stack = list(reversed(outer.parents))
+    while stack:
+        name = stack.pop()
+        if name in names:
+            stack.extend(reversed(by_name[name].parents))
+        elif name not in leaves:
+            leaves.append(name)
+    flattened = Step(outer.name, outer.statement, outer.inference, tuple(leaves), (None,) * len(leaves), outer.location)
+    result = check_step(flattened, [statements.get(name) for name in leaves])
+    covered = result.outcome == RECONSTRUCTED
+    nested_results = [
+        StepResult(
+            step.name,
+            RECONSTRUCTED if covered else UNPROVEN,
+            step.inference.rule,
+            f"conclusion not stated; covered by the check of `{outer.name}` from its named parents"
+            if covered
+            else f"conclusion not stated, and `{outer.name}` was not shown from its named parents either",
+            step.location,
+        )
+        for step in nested
+    ]
+    if covered:
+        result = StepResult(
+            result.name, result.outcome, result.rule,
+            f"{result.message} (checked from {', '.join(leaves)}, under its nested records)",
+            result.location, result.details,
+        )
+    return [*nested_results, result]
