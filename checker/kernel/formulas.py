@@ -349,6 +349,11 @@ _ARGUMENT_POLARITY = {
 flipped (-1), or lost (0, both at once)."""
 
 
+def argument_polarities(connective: str) -> tuple[int, ...]:
+    """The polarity factor of each argument of ``connective`` (none for atoms)."""
+    return _ARGUMENT_POLARITY.get(connective, ())
+
+
 def subformulas_with_polarity(formula: Formula) -> Iterator[tuple[Formula, int]]:
     """Every subformula occurrence, outermost first and left to right, with
     its polarity: +1 positive, -1 negative, 0 both (under an equivalence)."""
@@ -356,6 +361,6 @@ def subformulas_with_polarity(formula: Formula) -> Iterator[tuple[Formula, int]]
     while stack:
         current, polarity = stack.pop()
         yield current, polarity
-        factors = _ARGUMENT_POLARITY.get(current.connective, ())
+        factors = argument_polarities(current.connective)
         for argument, factor in reversed(tuple(zip(current.arguments, factors))):
             stack.append((argument, polarity * factor))
