@@ -75,10 +75,15 @@ DEFINITION_PREFIX = "definition_"
 _EXPANSIONS = {
     IMPLIES: lambda a, b: binary(OR, negation(a), b),
     IFF: lambda a, b: binary(AND, binary(IMPLIES, a, b), binary(IMPLIES, b, a)),
-    XOR: lambda a, b: negation(binary(IFF, a, b)),
+    XOR: lambda a, b: binary(AND, binary(OR, a, b), binary(OR, negation(a), negation(b))),
     NOR: lambda a, b: negation(binary(OR, a, b)),
     NAND: lambda a, b: negation(binary(AND, a, b)),
 }
+
+_NEGATED = {IFF: XOR, XOR: IFF}
+"""``~(a <=> b)`` is ``a <~> b`` and the other way round: expanding the
+negation of either as the other keeps complementary copies of a side from
+being multiplied together."""
 
 Literals = tuple[Literal, ...]
 
@@ -222,6 +227,8 @@ class _Clausifier:
                 results.append([] if (connective == TRUE) == positive else [()])
             elif connective == NOT:
                 tasks.append((current.arguments[0], not positive, substitution, universals))
+            elif connective in _NEGATED and not positive:
+                tasks.append((make(_NEGATED[connective], current.arguments), True, substitution, universals))
             elif connective in _EXPANSIONS:
                 tasks.append((_EXPANSIONS[connective](*current.arguments), positive, substitution, universals))
             elif connective in (FORALL, EXISTS):
