@@ -19,14 +19,14 @@ from checker.kernel.clauses import Clause
 from checker.kernel.entailment import check_entailment
 from checker.kernel.failure import Failure
 from checker.kernel.formulas import Formula, alpha_equivalent, formula_of_clause, negation, universal_closure
-from checker.kernel.introductions import defined_symbol, skolem_axiom
+from checker.kernel.introductions import defined_symbol, skolemize
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.entailment import find_entailment
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import SearchLimits
-from checker.search.witnesses import Misfit, propose_witnesses
+from checker.search.witnesses import Misfit, next_witness
 
 
 def as_formula(content: Clause | Formula) -> Formula:
@@ -47,29 +47,30 @@ def check_consequence(
     premises: Sequence[Formula],
     conclusion: Formula,
     limits: SearchLimits,
-    what: str = "claimed to follow from its premises",
+    what: str = "follows from its premises",
 ) -> StepResult:
     """premises ⊨ conclusion, by alpha-equivalence or a kernel-replayed
     refutation; if neither is found, a kernel-confirmed counter-model."""
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
-        return _result(step, RECONSTRUCTED, "alpha-equivalent to a premise")
+        return _result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
     chain = find_entailment(premises, conclusion, limits)
     if chain is not None:
         failure = check_entailment(premises, conclusion, chain)
         if failure is None:
             return _result(
                 step, RECONSTRUCTED,
-                f"kernel replayed a refutation of premises and negated conclusion ({len(chain.steps)} inferences)",
+                f"{what}: kernel replayed a refutation of premises and negated conclusion in "
+                f"{len(chain.steps)} inference{'s' if len(chain.steps) != 1 else ''}",
             )
     model = find_countermodel(list(premises), conclusion)
     if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
         return _result(
             step,
             REFUTED,
-            f"counter-model: the premises are true and the conclusion false, so the step does not hold ({what})",
+            f"counter-model: the premises are true and the conclusion false (the step claims it {what})",
             render_countermodel(model, list(premises), conclusion).splitlines(),
         )
-    return _result(step, UNPROVEN, f"not shown within the search bounds ({what})")
+    return _result(step, UNPROVEN, f"not shown within the search bounds (the step claims it {what})")
 
 
 def check_introduction(
@@ -81,24 +82,27 @@ def check_introduction(
     limits: SearchLimits,
 ) -> StepResult:
     """A step with new symbols: fresh, each the witness of a quantifier that
-    Skolemization may replace, and entailed by premises plus Skolem axioms."""
+    Skolemization may replace, and the step follows from the premises so
+    Skolemized (built by the kernel, outermost quantifier first)."""
     new = new_symbols(claimed, raw_premises)
     not_fresh = table.freshness_failure(step.name, new)
     if not_fresh:
         return _result(step, FAILED, not_fresh, ("reason: not_fresh",))
-    conclusion = as_formula(claimed)
-    proposals = propose_witnesses(premises, claimed, new)
-    if isinstance(proposals, Misfit):
-        return _result(step, FAILED, proposals.message, (f"reason: {proposals.reason}",))
-    axioms: list[Formula] = []
-    for proposal in proposals:
-        axiom = skolem_axiom(proposal.quantifier, proposal.witnesses)
-        if isinstance(axiom, Failure):
-            return _result(step, FAILED, axiom.message, (f"reason: {axiom.reason}",))
-        axioms.append(axiom)
+    skolemized = list(premises)
+    remaining = set(new)
+    while remaining:
+        proposal = next_witness(skolemized, claimed, remaining)
+        if isinstance(proposal, Misfit):
+            return _result(step, FAILED, proposal.message, (f"reason: {proposal.reason}",))
+        replaced = skolemize(skolemized[proposal.premise], proposal.quantifier, {proposal.bound: proposal.witness})
+        if isinstance(replaced, Failure):
+            return _result(step, FAILED, replaced.message, (f"reason: {replaced.reason}",))
+        skolemized[proposal.premise] = replaced
+        remaining.discard((proposal.witness.symbol, proposal.witness.arity))
     introduced = ", ".join(describe_symbol(s) for s in sorted(new))
     return check_consequence(
-        step, [*premises, *axioms], conclusion, limits, what=f"Skolemization introducing {introduced}, with its Skolem axioms"
+        step, skolemized, as_formula(claimed), limits,
+        what=f"Skolemization introducing {introduced}: follows from its premises so Skolemized",
     )
 
 
@@ -127,4 +131,4 @@ def check_negated_conjecture(
         isinstance(claimed, Formula) and alpha_equivalent(negation(conjecture), claimed)
     ):
         return _result(step, RECONSTRUCTED, "the negation of the conjecture")
-    return check_consequence(step, [negated], conclusion, limits, what="claimed to follow from the negation of the conjecture")
+    return check_consequence(step, [negated], conclusion, limits, what="follows from the negation of the conjecture")

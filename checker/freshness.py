@@ -39,6 +39,7 @@ class SymbolTable:
     locations: dict[str, Location]
     children: dict[str, list[str]]
     introducers: dict[Symbol, list[str]]
+    order: dict[str, int]
 
     def descendants(self, name: str) -> set[str]:
         found: set[str] = set()
@@ -51,23 +52,32 @@ class SymbolTable:
         return found
 
     def freshness_failure(self, step: str, new_symbols: Iterable[Symbol]) -> str | None:
-        """Why one of ``new_symbols`` introduced by ``step`` is not fresh, or None."""
-        allowed = self.descendants(step) | {step}
+        """Why one of ``new_symbols`` introduced by ``step`` is not fresh, or
+        None.  When two steps introduce a symbol, the later one (in checking
+        order) is the one at fault, and the earlier is judged without it."""
         for symbol in sorted(new_symbols):
             if symbol in self.problem:
                 name, location = self.problem[symbol]
-                return f"symbol `{describe_symbol(symbol)}` is not fresh: it occurs in the problem's `{name}` at {location}"
-            others = [s for s in self.introducers.get(symbol, ()) if s != step]
-            if others:
                 return (
-                    f"symbol `{describe_symbol(symbol)}` is not fresh: it is introduced again by step `{others[0]}` "
-                    f"at {self.locations[others[0]]}"
+                    f"new symbol `{describe_symbol(symbol)}` (in no parent) is not fresh: "
+                    f"it occurs in the problem's `{name}` at {location}"
                 )
+            introducers = self.introducers.get(symbol, [])
+            earlier = [s for s in introducers if self.order[s] < self.order[step]]
+            if earlier:
+                return (
+                    f"new symbol `{describe_symbol(symbol)}` (in no parent) is not fresh: it was already "
+                    f"introduced by step `{earlier[0]}` at {self.locations[earlier[0]]}"
+                )
+            allowed = self.descendants(step) | {step}
+            for later in introducers:
+                if self.order[later] > self.order[step]:
+                    allowed |= self.descendants(later) | {later}
             for name, symbols in self.steps.items():
                 if name not in allowed and symbol in symbols:
                     return (
-                        f"symbol `{describe_symbol(symbol)}` is not fresh: it occurs in step `{name}` at "
-                        f"{self.locations[name]}, which does not descend from this step"
+                        f"new symbol `{describe_symbol(symbol)}` (in no parent) is not fresh: it occurs in step "
+                        f"`{name}` at {self.locations[name]}, which does not descend from this step"
                     )
         return None
 
@@ -95,7 +105,12 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         for symbol in new_symbols(s.statement.content, ()) - inherited:
             introducers.setdefault(symbol, []).append(s.name)
     return SymbolTable(
-        problem_symbols, step_symbols, {s.name: s.location for s in steps}, children, introducers
+        problem_symbols,
+        step_symbols,
+        {s.name: s.location for s in steps},
+        children,
+        introducers,
+        {s.name: number for number, s in enumerate(steps)},
     )
 
 

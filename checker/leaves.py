@@ -12,11 +12,14 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from checker.kernel.clauses import Clause
+from checker.formula_steps import as_formula
+from checker.kernel.entailment import check_entailment
 from checker.kernel.formulas import Formula, alpha_equivalent
 from checker.kernel.rules import check_conclusion
 from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.reconstruct import SearchLimits, reconstruct
+from checker.search.entailment import find_entailment
 from checker.search.subsumption import find_theta
 from formats.derivation import Document, Origin, Statement
 
@@ -28,14 +31,20 @@ CONJECTURE_ROLES = frozenset({"conjecture", "negated_conjecture"})
 
 def same_content(problem_content: Clause | Formula, leaf_content: Clause | Formula) -> bool:
     """Whether the leaf states the problem statement (or a weakening of a
-    clause): formulas up to alpha-equivalence, clauses by a kernel-checked
-    theta(problem clause) ⊆ leaf clause."""
-    if isinstance(problem_content, Formula) and isinstance(leaf_content, Formula):
-        return alpha_equivalent(problem_content, leaf_content)
+    clause): clauses by a kernel-checked theta(problem clause) ⊆ leaf
+    clause, anything else by alpha-equivalence of universal closures."""
     if isinstance(problem_content, Clause) and isinstance(leaf_content, Clause):
         theta = find_theta(problem_content, leaf_content)
         return theta is not None and check_conclusion(problem_content, leaf_content, theta) is None
-    return False
+    return alpha_equivalent(as_formula(problem_content), as_formula(leaf_content))
+
+
+def _clause_form_of(problem_content: Formula, leaf_content: Clause, limits: SearchLimits) -> bool:
+    """Whether a clause leaf follows from the formula it cites (a clause of
+    its clause form), by a kernel-replayed refutation."""
+    premise, conclusion = as_formula(problem_content), as_formula(leaf_content)
+    chain = find_entailment([premise], conclusion, limits)
+    return chain is not None and check_entailment([premise], conclusion, chain) is None
 
 
 def check_leaf(step: Step, problem: Document | None, limits: SearchLimits) -> StepResult:
@@ -50,11 +59,16 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits) -> St
     cited = origin.detail[1] if origin.kind == "file" and len(origin.detail) > 1 and origin.detail[1] else statement.name
     candidates = _by_name_first(problem.statements, cited)
     for candidate in candidates:
-        if same_content(candidate.content, statement.content):
+        if same_content(candidate.content, statement.content) or (
+            candidate.name == cited
+            and isinstance(candidate.content, Formula)
+            and isinstance(statement.content, Clause)
+            and _clause_form_of(candidate.content, statement.content, limits)
+        ):
             if candidate.role in CONJECTURE_ROLES and statement.role not in CONJECTURE_ROLES:
                 return StepResult(
                     step.name, FAILED, "leaf",
-                    f"states the problem's {candidate.role} `{candidate.name}` as if it were an axiom",
+                    f"not in the problem as an axiom: it states the problem's {candidate.role} `{candidate.name}`",
                     step.location,
                 )
             how = "" if candidate.name == cited else f" (cited as `{cited}`)"

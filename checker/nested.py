@@ -103,7 +103,7 @@ def check_with_nested(
         if result.outcome == RECONSTRUCTED:
             picked = {name: option for name, (_, option) in zip(outer.parents, choice) if option is not None}
             return [*_settled(nested, picked), result]
-    return _coarse(outer, nested, statements, check_step)
+    return _coarse(outer, nested, statements, check_step, options)
 
 
 def _settled(nested: Sequence[Step], picked: dict[str, Option]) -> list[StepResult]:
@@ -124,9 +124,15 @@ def _settled(nested: Sequence[Step], picked: dict[str, Option]) -> list[StepResu
         for step in nested
     ]
 def _coarse(
-    outer: Step, nested: Sequence[Step], statements: dict[str, Statement], check_step: CheckStep
+    outer: Step,
+    nested: Sequence[Step],
+    statements: dict[str, Statement],
+    check_step: CheckStep,
+    options: dict[str, list[Option]],
 ) -> list[StepResult]:
-    """Check the outer step from the named statements under its nested records."""
+    """Check the outer step from the named statements under its nested
+    records.  If that fails too, the fault is the outer step's: a nested
+    step whose inference yields something is not blamed for it."""
     names = {step.name for step in nested}
     by_name = {step.name: step for step in nested}
     leaves: list[str] = []
@@ -140,18 +146,19 @@ def _coarse(
     flattened = Step(outer.name, outer.statement, outer.inference, tuple(leaves), (None,) * len(leaves), outer.location)
     result = check_step(flattened, [statements.get(name) for name in leaves])
     covered = result.outcome == RECONSTRUCTED
-    nested_results = [
-        StepResult(
-            step.name,
-            RECONSTRUCTED if covered else UNPROVEN,
-            step.inference.rule,
-            f"conclusion not stated; covered by the check of `{outer.name}` from its named parents"
-            if covered
-            else f"conclusion not stated, and `{outer.name}` was not shown from its named parents either",
-            step.location,
-        )
-        for step in nested
-    ]
+    nested_results = []
+    for step in nested:
+        if covered:
+            outcome, message = RECONSTRUCTED, f"conclusion not stated; covered by the check of `{outer.name}` from its named parents"
+        elif options.get(step.name):
+            first = options[step.name][0]
+            outcome, message = RECONSTRUCTED, (
+                f"conclusion not stated; its inference yields `{first.content}` by {first.how} "
+                f"(one of {len(options[step.name])} candidates), none of which lets `{outer.name}` follow"
+            )
+        else:
+            outcome, message = UNPROVEN, "conclusion not stated, and no inference from its parents was found"
+        nested_results.append(StepResult(step.name, outcome, step.inference.rule, message, step.location))
     if covered:
         result = StepResult(
             result.name, result.outcome, result.rule,

@@ -18,8 +18,10 @@ from checker.freshness import SymbolTable, new_symbols
 from checker.kernel.clauses import Clause
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
-from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
+from checker.kernel.models import confirm_countermodel, render_countermodel
+from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
+from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
 from formats.derivation import Statement
 
@@ -97,5 +99,11 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
             return _result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
+        model = find_countermodel(premises, claimed)
+        if model is not None and confirm_countermodel(model, premises, claimed) is None:
+            return _result(
+                step, REFUTED, "counter-model: the premises are true and the claimed clause false",
+                (*render_countermodel(model, premises, claimed).splitlines(), *closest_lines(found.closest)),
+            )
         return _result(step, UNPROVEN, "no evidence found within the search bounds", closest_lines(found.closest))
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)

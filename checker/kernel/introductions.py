@@ -1,16 +1,16 @@
-"""Satisfiability-preserving introductions: Skolem axioms and definitions.
+"""Satisfiability-preserving introductions: Skolemization and definitions.
 
 A Skolemization or definition step does not follow from its premises; it
 is sound because any model of the premises can be extended to interpret a
-*fresh* symbol so that the step holds.  The kernel turns each introduction
-into the axiom that extension satisfies (a Skolem axiom, or the definition
-itself), after checking the shape that makes the extension exist.  The
-step is then checked as an ordinary entailment from premises plus axioms.
-Freshness across the whole derivation is the plan's job: these functions
-see only one formula.
+*fresh* symbol so that the step holds.  The kernel checks the shape that
+makes such an extension exist and builds the Skolemized premise itself;
+the step must then follow from that.  Freshness across the whole
+derivation is the plan's job: these functions see only their formulas.
 """
 
 from __future__ import annotations
+
+from collections.abc import Mapping
 
 from checker.kernel.failure import Failure
 from checker.kernel.formulas import (
@@ -20,8 +20,9 @@ from checker.kernel.formulas import (
     IFF,
     IMPLIES,
     Formula,
-    binary,
+    argument_polarities,
     free_variables,
+    make,
     quantified,
     substitute_free,
     symbols_of_formula,
@@ -34,31 +35,22 @@ def _names(variables) -> str:
     return ", ".join(sorted(v.symbol for v in variables))
 
 
-def _close(formula: Formula) -> Formula:
-    free = sorted(free_variables(formula), key=lambda v: v.symbol)
-    return quantified(FORALL, tuple(free), formula) if free else formula
+def _witness_failure(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Term]) -> Failure | None:
+    """Why the witnesses cannot be Skolem terms for the quantifier, or None.
 
-
-def skolem_axiom(quantifier: Formula, witnesses: tuple[Term, ...]) -> Formula | Failure:
-    """The axiom that interprets the witnesses' new symbols: for ``? [Y] : G``
-    it is ``! [free] : ((? [Y] : G) => G{Y := witness})``; for a universal
-    (met in negative polarity) ``! [free] : (G{Y := witness} => ! [Y] : G)``.
-
-    Each witness must be a new symbol applied to distinct variables that
-    include every free variable of the quantified formula: a witness that
-    forgets one would have to choose the same value for all its values.
+    Each witness must be a symbol new to the premise applied to distinct
+    variables that include every free variable of the quantified formula:
+    a witness that forgets one would have to pick one value for all of its
+    values.
     """
     if quantifier.connective not in (EXISTS, FORALL):
         return Failure("not_quantified", f"`{quantifier}` is not a quantified formula")
-    if len(witnesses) != len(quantifier.variables):
-        return Failure(
-            "witness_count",
-            f"`{quantifier}` binds {len(quantifier.variables)} variable(s) but {len(witnesses)} witness(es) are given",
-        )
+    if not witnesses or not set(witnesses) <= set(quantifier.variables):
+        return Failure("witness_variables", f"witnesses must be given for variables bound by `{quantifier}`")
     free = free_variables(quantifier)
-    inside = {name for name, _ in symbols_of_formula(quantifier)}
-    seen: set[str] = set()
-    for bound, witness in zip(quantifier.variables, witnesses):
+    present = {name for name, _ in symbols_of_formula(premise)}
+    symbols = [witness.symbol for witness in witnesses.values()]
+    for bound, witness in witnesses.items():
         arguments = witness.arguments
         if witness.is_variable or not all(a.is_variable for a in arguments) or len(set(arguments)) != len(arguments):
             return Failure(
@@ -72,16 +64,65 @@ def skolem_axiom(quantifier: Formula, witnesses: tuple[Term, ...]) -> Formula | 
                 f"Skolem term `{witness}` for `{bound}` does not depend on {_names(missing)}, "
                 f"which {verb} free in `{quantifier}`",
             )
-        if witness.symbol in inside or witness.symbol in seen:
+        if witness.symbol in present or symbols.count(witness.symbol) > 1:
             return Failure(
-                "not_fresh", f"Skolem symbol `{witness.symbol}` already occurs in `{quantifier}` or witnesses it twice"
+                "not_fresh", f"Skolem symbol `{witness.symbol}` already occurs in `{premise}` or witnesses twice"
             )
-        seen.add(witness.symbol)
-    body = quantifier.arguments[0]
-    instance = substitute_free(body, Substitution(dict(zip(quantifier.variables, witnesses))))
-    if quantifier.connective == EXISTS:
-        return _close(binary(IMPLIES, quantifier, instance))
-    return _close(binary(IMPLIES, instance, quantifier))
+    return None
+
+
+def skolemize(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Term]) -> Formula | Failure:
+    """``premise`` with every occurrence of ``quantifier`` that Skolemization
+    may replace (an existential of positive polarity, a universal of
+    negative polarity) replaced by its body with the witnessed variables
+    substituted; variables without a witness stay quantified.
+
+    Sound because premise ∧ (Skolem axiom of the witnesses) entails the
+    result, and a model of the premise extends to one of the axiom by
+    interpreting the fresh symbols as choice functions.
+    """
+    failure = _witness_failure(premise, quantifier, witnesses)
+    if failure is not None:
+        return failure
+    wanted = 1 if quantifier.connective == EXISTS else -1
+    body = substitute_free(quantifier.arguments[0], Substitution(dict(witnesses)))
+    remaining = tuple(v for v in quantifier.variables if v not in witnesses)
+    replacement = quantified(quantifier.connective, remaining, body) if remaining else body
+
+    replaced = 0
+    misplaced = 0
+    results: list[Formula] = []
+    tasks: list[tuple] = [(premise, 1)]
+    while tasks:
+        task = tasks.pop()
+        if len(task) == 3:
+            _, original, count = task
+            arguments = tuple(results[len(results) - count :])
+            del results[len(results) - count :]
+            results.append(make(original.connective, arguments, original.variables, original.atom))
+            continue
+        current, polarity = task
+        if current is quantifier:
+            if polarity == wanted:
+                replaced += 1
+                results.append(replacement)
+                continue
+            misplaced += 1
+        if not current.arguments:
+            results.append(current)
+            continue
+        tasks.append(("rebuild", current, len(current.arguments)))
+        factors = argument_polarities(current.connective)
+        tasks.extend((argument, polarity * factor) for argument, factor in reversed(tuple(zip(current.arguments, factors))))
+    if not replaced:
+        if misplaced:
+            return Failure(
+                "wrong_polarity",
+                f"`{quantifier}` occurs in `{premise}` only where Skolemization may not replace it "
+                "(an existential of negative polarity, a universal of positive polarity, or under an equivalence)",
+            )
+        return Failure("no_occurrence", f"`{quantifier}` does not occur in `{premise}`")
+    return results[0]
 
 
 def defined_symbol(definition: Formula) -> tuple[str, int] | Failure:

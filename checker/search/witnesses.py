@@ -1,17 +1,20 @@
 """Guessing which quantifier each new symbol of a Skolemization step witnesses.
 
-Untrusted: the guess only proposes Skolem axioms, which the kernel builds
-and checks (checker.kernel.introductions), and the step still has to be
-entailed by premises plus axioms.  A wrong guess costs completeness only.
+Untrusted: a guess only names a quantifier and witness terms; the kernel
+checks their shape and builds the Skolemized premise itself
+(checker.kernel.introductions.skolemize), and the step must still follow
+from that.  A wrong guess costs completeness only.  Quantifiers are taken
+outermost first, so a witness for an inner quantifier is built after the
+outer ones are replaced, as Skolemization does.
 """
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 
 from checker.kernel.clauses import Clause
-from checker.kernel.formulas import EXISTS, FORALL, Formula, free_variables, subformulas_with_polarity
+from checker.kernel.formulas import EXISTS, FORALL, Formula, argument_polarities, free_variables
 from checker.kernel.terms import Term, application, subterms, variable
 
 Symbol = tuple[str, int]
@@ -19,76 +22,62 @@ Symbol = tuple[str, int]
 
 @dataclass(frozen=True, slots=True)
 class Witnessing:
-    """The proposal: ``quantifier`` (a subformula of a premise) has its
-    bound variables witnessed by ``witnesses``."""
+    """The proposal: in premise ``premise``, the bound variable ``bound`` of
+    ``quantifier`` is witnessed by ``witness``."""
 
+    premise: int
     quantifier: Formula
-    witnesses: tuple[Term, ...]
+    bound: Term
+    witness: Term
 
 
 @dataclass(frozen=True, slots=True)
 class Misfit:
-    """Why no proposal fits a new symbol: it matches only quantifiers of the
-    wrong polarity (``wrong_polarity``) or none at all."""
+    """Why no proposal fits a new symbol: it could only replace a quantifier
+    of the wrong polarity (``wrong_polarity``), or there is none."""
 
     symbol: Symbol
     reason: str
     message: str
 
 
-def _occurrences(content: Clause | Formula) -> list[Term]:
-    """Terms of the conclusion in written order, atoms' arguments included."""
-    atoms: list[Term] = []
-    if isinstance(content, Clause):
-        atoms = [literal.atom for literal in content.literals]
+def _with_context(formula: Formula) -> Iterator[tuple[Formula, int, tuple[Term, ...]]]:
+    """Subformula occurrences outermost first, with polarity and the
+    variables bound around them, outermost binder first."""
+    stack = [(formula, 1, ())]
+    while stack:
+        current, polarity, bound = stack.pop()
+        yield current, polarity, bound
+        inner = bound + current.variables
+        factors = argument_polarities(current.connective)
+        for argument, factor in reversed(tuple(zip(current.arguments, factors))):
+            stack.append((argument, polarity * factor, inner))
+
+
+def _uses(conclusion: Clause | Formula, symbols: set[Symbol]) -> list[Term]:
+    """The first occurrence of each of ``symbols`` in the conclusion, in
+    written order."""
+    if isinstance(conclusion, Clause):
+        atoms = [literal.atom for literal in conclusion.literals]
     else:
-        for formula, _ in subformulas_with_polarity(content):
-            if formula.atom is not None:
-                atoms.append(formula.atom)
-    found: list[Term] = []
+        atoms = [f.atom for f, _, _ in _with_context(conclusion) if f.atom is not None]
+    uses: dict[Symbol, Term] = {}
     for atom in atoms:
         for position, term in subterms(atom):
-            if position:
-                found.append(term)
-    return found
-
-
-def _first_uses(conclusion: Clause | Formula, symbols: set[Symbol]) -> list[Term]:
-    """For each new symbol, its first occurrence in the conclusion, in order."""
-    uses: dict[Symbol, Term] = {}
-    for term in _occurrences(conclusion):
-        key = (term.symbol, term.arity)
-        if not term.is_variable and key in symbols and key not in uses:
-            uses[key] = term
+            key = (term.symbol, term.arity)
+            if position and not term.is_variable and key in symbols and key not in uses:
+                uses[key] = term
     return list(uses.values())
 
 
-def _quantified_variables(premises: Sequence[Formula]) -> tuple[list[tuple[Formula, Term]], list[tuple[Formula, Term]]]:
-    """Bound variables that Skolemization may replace (existential in positive
-    polarity, universal in negative), and those it may not, in written order."""
-    proper: list[tuple[Formula, Term]] = []
-    improper: list[tuple[Formula, Term]] = []
-    for premise in premises:
-        for formula, polarity in subformulas_with_polarity(premise):
-            if formula.connective not in (EXISTS, FORALL):
-                continue
-            replaceable = (formula.connective == EXISTS and polarity > 0) or (
-                formula.connective == FORALL and polarity < 0
-            )
-            target = proper if replaceable else improper
-            target.extend((formula, bound) for bound in formula.variables)
-    return proper, improper
-
-
-def _witness(use: Term, quantifier: Formula) -> Term:
-    """The Skolem term for ``quantifier`` built from the symbol's use: its
-    variables where they are variables of the quantifier, else the
-    quantifier's free variables in order, else fresh ones."""
-    free = sorted(free_variables(quantifier), key=lambda v: v.symbol)
-    named = [a for a in use.arguments if a.is_variable and a in free]
-    if len(set(named)) == use.arity:
-        return application(use.symbol, tuple(named))
-    arguments = free[: use.arity]
+def _witness(use: Term, free_in_order: list[Term]) -> Term:
+    """The Skolem term for a quantifier, from the symbol's first use: its
+    arguments where they are the quantifier's free variables, else the free
+    variables in binding order (padded with new variables if the symbol
+    takes more, cut short if it takes fewer, for the kernel to judge)."""
+    if all(a in free_in_order for a in use.arguments) and len(set(use.arguments)) == use.arity:
+        return use
+    arguments = free_in_order[: use.arity]
     number = 0
     while len(arguments) < use.arity:
         candidate = variable(f"W{number}")
@@ -98,33 +87,36 @@ def _witness(use: Term, quantifier: Formula) -> Term:
     return application(use.symbol, tuple(arguments))
 
 
-def propose_witnesses(
-    premises: Sequence[Formula], conclusion: Clause | Formula, new: set[Symbol]
-) -> list[Witnessing] | Misfit:
-    """Pair each new symbol, by order of first use, with the next replaceable
-    bound variable of the premises, grouped by quantifier."""
-    uses = _first_uses(conclusion, new)
-    proper, improper = _quantified_variables(premises)
-    if len(uses) > len(proper):
-        use = uses[len(proper)]
-        symbol = (use.symbol, use.arity)
-        if improper:
-            formula, bound = improper[0]
-            return Misfit(
-                symbol,
-                "wrong_polarity",
-                f"new symbol `{use.symbol}/{use.arity}` can only replace `{bound}` of `{formula}`, "
-                "which Skolemization may not replace (an existential of negative polarity or a universal of positive polarity)",
-            )
-        return Misfit(symbol, "no_quantifier", f"new symbol `{use.symbol}/{use.arity}` witnesses no quantifier of the premises")
-    grouped: dict[Formula, dict[Term, Term]] = {}
-    for use, (formula, bound) in zip(uses, proper):
-        grouped.setdefault(formula, {})[bound] = _witness(use, formula)
-    proposals = []
-    for formula, chosen in grouped.items():
-        if len(chosen) != len(formula.variables):
-            # A quantifier only partly witnessed gets no axiom: the entailment
-            # check then fails and the step is reported unproven.
-            continue
-        proposals.append(Witnessing(formula, tuple(chosen[v] for v in formula.variables)))
-    return proposals
+def next_witness(premises: Sequence[Formula], conclusion: Clause | Formula, remaining: set[Symbol]) -> Witnessing | Misfit:
+    """The outermost quantifier Skolemization may replace, paired with the
+    remaining new symbol that best fits it (first used, preferring one whose
+    arity is the quantifier's number of free variables)."""
+    uses = _uses(conclusion, remaining)
+    improper = None
+    for index, premise in enumerate(premises):
+        for formula, polarity, bound in _with_context(premise):
+            if formula.connective not in (EXISTS, FORALL):
+                continue
+            replaceable = polarity == (1 if formula.connective == EXISTS else -1)
+            if not replaceable:
+                improper = improper or formula
+                continue
+            free = free_variables(formula)
+            free_in_order = [v for v in dict.fromkeys(bound) if v in free]
+            free_in_order += sorted(free - set(free_in_order), key=lambda v: v.symbol)
+            if not uses:
+                break
+            fitting = [use for use in uses if use.arity == len(free_in_order)]
+            use = (fitting or uses)[0]
+            return Witnessing(index, formula, formula.variables[0], _witness(use, free_in_order))
+    use = uses[0] if uses else None
+    symbol = (use.symbol, use.arity) if use else sorted(remaining)[0]
+    name = f"{symbol[0]}/{symbol[1]}"
+    if improper is not None:
+        return Misfit(
+            symbol,
+            "wrong_polarity",
+            f"new symbol `{name}` can only replace a variable of `{improper}`, which Skolemization may not "
+            "replace (an existential of negative polarity, a universal of positive polarity, or under an equivalence)",
+        )
+    return Misfit(symbol, "no_quantifier", f"new symbol `{name}` witnesses no quantifier of the premises")

@@ -113,7 +113,7 @@ MUTANTS = [
         40, [("sk2(X)", "sk2"), ("sk2(sk1)", "sk2")], "n6", "missing_dependency", id="p40-witness-forgets-variable"
     ),
     # Pelletier 21 (from memory): both axioms' witnesses named sk1.
-    pytest.param(21, [("sk2", "sk1")], "s1", "not_fresh", id="p21-symbol-introduced-twice"),
+    pytest.param(21, [("sk2", "sk1")], "s2", "not_fresh", id="p21-symbol-introduced-twice"),
     # Pelletier 32 (from memory): a second constant that witnesses nothing.
     pytest.param(
         32, [("f(sk1) & k(sk1) & ~ j(sk1)", "f(sk1) & k(sk2) & ~ j(sk1)")], "n3", "no_quantifier",
