@@ -126,10 +126,70 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
         else:
             results.append(check_step(step, [statements.get(name) for name in step.parents]))
         results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
+    results = _one_conjecture_at_a_time(plan, statements, results)
     results.extend(_whole_derivation(document))
     verdict = verdict_of(results)
-    cautions = (NO_PROBLEM_CAUTION,) if problem is None and verdict == ACCEPTED else ()
-    return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=cautions)
+    cautions = []
+    if problem is None and verdict == ACCEPTED:
+        cautions.append(NO_PROBLEM_CAUTION)
+    if problem is not None and verdict == ACCEPTED:
+        cautions.extend(_conjecture_cautions(plan, statements, problem))
+    return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions))
+
+
+def _negations(plan, statements) -> list[tuple[str, str]]:
+    """(step, conjecture) for each step that negates a conjecture, in order."""
+    found = []
+    for step in plan.steps:
+        if step.statement is None or step.is_leaf:
+            continue
+        for name in step.parents:
+            parent = statements.get(name)
+            if parent is not None and parent.role == "conjecture":
+                found.append((step.name, name))
+    return found
+
+
+def _one_conjecture_at_a_time(plan, statements, results: list[StepResult]) -> list[StepResult]:
+    """TPTP takes a problem's conjectures one at a time: a derivation that
+    negates two of them refutes only their disjunction, so the step that
+    negates the second one is failed."""
+    negations = _negations(plan, statements)
+    if len({conjecture for _, conjecture in negations}) < 2:
+        return results
+    first_step, first = negations[0]
+    blamed = {
+        step: f"negates conjecture `{conjecture}`, but step `{first_step}` already negated conjecture `{first}`: "
+        "each conjecture must be refuted on its own (a refutation from both negations proves only their disjunction)"
+        for step, conjecture in negations
+        if conjecture != first
+    }
+    return [
+        StepResult(r.name, FAILED, r.rule, blamed[r.name], r.location, ("reason: second_conjecture",))
+        if r.name in blamed
+        else r
+        for r in results
+    ]
+
+
+def _conjecture_cautions(plan, statements, problem: Document) -> list[str]:
+    """What an accepted refutation does and does not show about the conjectures."""
+    conjectures = [s.name for s in problem.statements if s.role == "conjecture"]
+    if not conjectures:
+        return []
+    negated = {conjecture for _, conjecture in _negations(plan, statements)}
+    if not negated:
+        return [
+            "the refutation uses no negated conjecture: it shows the problem's axioms are inconsistent, "
+            "so every conjecture follows from them trivially"
+        ]
+    others = [c for c in conjectures if c not in negated]
+    if others:
+        return [
+            f"proves conjecture {', '.join(sorted(negated))} only; the problem's other conjectures "
+            f"({', '.join(others)}) are not addressed"
+        ]
+    return []
 
 
 def _nested_by_outer(plan) -> dict[str, list]:

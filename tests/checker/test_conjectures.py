@@ -1,0 +1,75 @@
+"""Conjectures: each is refuted on its own, and the report says what a
+refutation shows about them.
+
+TPTP language standard (from memory): a problem's conjectures are proved one
+at a time; a refutation of the axioms with the negations of two conjectures
+proves only their disjunction.
+"""
+
+from checker.outcomes import ACCEPTED, FAILED, REJECTED
+from checker.run import check
+
+PROBLEM = """
+fof(door_locked, axiom, locked(door1)).
+fof(alarm_armed, axiom, armed(alarm1)).
+fof(goal_locked, conjecture, locked(door1)).
+fof(goal_armed, conjecture, armed(alarm1)).
+"""
+
+ONE_CONJECTURE = """
+fof(door_locked, axiom, locked(door1), file('problem.p', door_locked)).
+fof(goal_locked, conjecture, locked(door1), file('problem.p', goal_locked)).
+fof(n1, negated_conjecture, ~ locked(door1), inference(negate, [status(cth)], [goal_locked])).
+cnf(c1, plain, locked(door1), inference(clausify, [status(thm)], [door_locked])).
+cnf(c2, plain, ~ locked(door1), inference(clausify, [status(thm)], [n1])).
+cnf(c3, plain, $false, inference(resolve, [status(thm)], [c1, c2])).
+"""
+
+BOTH_CONJECTURES = """
+fof(goal_locked, conjecture, locked(door1), file('problem.p', goal_locked)).
+fof(goal_armed, conjecture, armed(alarm1), file('problem.p', goal_armed)).
+fof(n1, negated_conjecture, ~ locked(door1), inference(negate, [status(cth)], [goal_locked])).
+fof(n2, negated_conjecture, ~ armed(alarm1), inference(negate, [status(cth)], [goal_armed])).
+fof(door_locked, axiom, locked(door1), file('problem.p', door_locked)).
+cnf(c1, plain, locked(door1), inference(clausify, [status(thm)], [door_locked])).
+cnf(c2, plain, ~ locked(door1), inference(clausify, [status(thm)], [n1])).
+cnf(c3, plain, $false, inference(resolve, [status(thm)], [c1, c2])).
+"""
+
+INCONSISTENT_PROBLEM = """
+fof(door_locked, axiom, locked(door1)).
+fof(door_open, axiom, ~ locked(door1)).
+fof(goal_armed, conjecture, armed(alarm1)).
+"""
+
+AXIOMS_ONLY = """
+cnf(door_locked, axiom, locked(door1), file('problem.p', door_locked)).
+cnf(door_open, axiom, ~ locked(door1), file('problem.p', door_open)).
+cnf(c1, plain, $false, inference(resolve, [status(thm)], [door_locked, door_open])).
+"""
+
+
+def run(tmp_path, problem: str, proof: str):
+    (tmp_path / "problem.p").write_text(problem)
+    (tmp_path / "proof.p").write_text(proof)
+    return check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"))
+
+
+def test_refuting_one_conjecture_is_accepted_and_says_which(tmp_path):
+    report = run(tmp_path, PROBLEM, ONE_CONJECTURE)
+    assert report.verdict == ACCEPTED
+    assert any("proves conjecture goal_locked only" in c and "goal_armed" in c for c in report.cautions)
+
+
+def test_negating_a_second_conjecture_fails_that_step(tmp_path):
+    report = run(tmp_path, PROBLEM, BOTH_CONJECTURES)
+    assert report.verdict == REJECTED
+    failure = report.first_failure
+    assert failure.name == "n2" and failure.outcome == FAILED
+    assert "already negated conjecture `goal_locked`" in failure.message
+
+
+def test_a_refutation_of_the_axioms_alone_is_flagged_as_inconsistency(tmp_path):
+    report = run(tmp_path, INCONSISTENT_PROBLEM, AXIOMS_ONLY)
+    assert report.verdict == ACCEPTED
+    assert any("axioms are inconsistent" in c for c in report.cautions)
