@@ -48,7 +48,9 @@ class Formula:
     atom: Term | None
 
     def __reduce__(self):
-        return (make, (self.connective, self.arguments, self.variables, self.atom))
+        # Flat, as for terms, so that pickling (worker processes) and copying
+        # never recurse through a long chain; rebuilding hash-conses again.
+        return (_from_flat, (_flat(self),))
 
     def __repr__(self) -> str:
         return f"Formula({render_formula(self)!r})"
@@ -77,6 +79,34 @@ def make(
         formula.atom = atom
         _table[key] = formula
     return formula
+
+
+def _flat(formula: Formula) -> tuple[tuple[str, tuple[int, ...], tuple[Term, ...], Term | None], ...]:
+    """The distinct subformulas, innermost first, each with the indices of
+    its arguments in this list."""
+    index: dict[Formula, int] = {}
+    entries = []
+    stack = [formula]
+    while stack:
+        current = stack[-1]
+        if current in index:
+            stack.pop()
+            continue
+        pending = [a for a in current.arguments if a not in index]
+        if pending:
+            stack.extend(pending)
+            continue
+        stack.pop()
+        index[current] = len(entries)
+        entries.append((current.connective, tuple(index[a] for a in current.arguments), current.variables, current.atom))
+    return tuple(entries)
+
+
+def _from_flat(entries: tuple[tuple[str, tuple[int, ...], tuple[Term, ...], Term | None], ...]) -> Formula:
+    built: list[Formula] = []
+    for connective, arguments, variables, atom in entries:
+        built.append(make(connective, tuple(built[i] for i in arguments), variables, atom))
+    return built[-1]
 
 
 def atomic(atom: Term) -> Formula:

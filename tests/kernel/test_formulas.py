@@ -9,8 +9,11 @@ independent of checker.kernel.models.
 
 from __future__ import annotations
 
+import copy
 import itertools
+import pickle
 
+import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -30,6 +33,7 @@ from checker.kernel.formulas import (
     XOR,
     Formula,
     alpha_equivalent,
+    argument_polarities,
     atomic,
     binary,
     formula_of_clause,
@@ -361,3 +365,40 @@ def test_polarity_enumeration_of_a_deep_chain_does_not_recurse():
     seen = list(subformulas_with_polarity(negation(chain)))
     assert len(seen) == 1 + 2 * 30_000 - 1
     assert {polarity for _, polarity in seen[1:]} == {-1}
+
+
+def test_argument_polarities_of_connectives():
+    assert argument_polarities(IMPLIES) == (-1, 1)
+    assert argument_polarities(XOR) == (0, 0)
+    assert argument_polarities(ATOM) == ()
+
+
+# --- construction, rendering, pickling --------------------------------------
+
+
+def test_constructors_refuse_what_is_not_a_connective_or_quantifier():
+    with pytest.raises(ValueError, match="not a binary connective"):
+        binary("~", alarm, alarm)
+    with pytest.raises(ValueError, match="not a quantifier"):
+        quantified("&", (X,), alarm)
+
+
+def test_rendering_reads_as_tptp():
+    formula = forall([X], binary(IMPLIES, negation(binary(OR, opened(X), alarm)), equal(drain(X), pump)))
+    assert str(formula) == "! [X] : (~ (open(X) | alarm) => drain(X) = pump)"
+    assert repr(negation(VERUM)) == "Formula('~ $true')"
+
+
+def test_pickling_a_deep_chain_is_flat_and_keeps_sharing():
+    chain = forall([X], binary(AND, opened(X), conjunction_chain(30_000)))
+    assert pickle.loads(pickle.dumps(chain)) is chain
+    assert copy.deepcopy(chain) is chain
+    twice = binary(AND, alarm, alarm)
+    assert pickle.loads(pickle.dumps(twice)) is twice
+
+
+def test_substitution_renames_once_in_a_shared_subformula():
+    shared = feeds(X, Y)
+    formula = forall([Y], binary(AND, shared, shared))
+    renamed = variable("Y1")
+    assert substitute_free(formula, Substitution({X: Y})) is forall([renamed], binary(AND, feeds(Y, renamed), feeds(Y, renamed)))
