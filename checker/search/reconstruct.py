@@ -38,7 +38,6 @@ from checker.search.evidence import (
     Attempt,
     candidates,
     describe,
-    premise_references,
     premise_substitutions,
     reindexed,
     with_premise_substitutions,

@@ -7,7 +7,7 @@ from hypothesis import strategies as st
 from search_steps import BUILDERS, Builder
 
 from checker.kernel.clauses import Clause, Literal
-from checker.kernel.rules import Chain, Refutation, check_clause_step
+from checker.kernel.rules import check_clause_step
 from checker.kernel.terms import application
 from checker.search.reconstruct import reconstruct
 

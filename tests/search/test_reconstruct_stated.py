@@ -7,7 +7,7 @@ from __future__ import annotations
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 from search_steps import Builder, resolution_step
-from search_strategies import N, P, fn
+from search_strategies import N, P
 
 from checker.kernel.clauses import Clause
 from checker.kernel.rules import Chain, Instantiation, Refutation, Resolution, check_clause_step
