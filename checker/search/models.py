@@ -155,6 +155,18 @@ def _ground_clause_count(size: int, clauses: Sequence[FlatClause], functions: se
     return sum(size**c.variable_count for c in clauses) + sum(size**arity * per_entry for _, arity in functions)
 
 
+def solve(problem: list[list[int]], conflicts: int) -> set[int] | bool | None:
+    """The true variables of a model of the propositional ``problem``,
+    False when it has none, None when the solver gave up after about
+    ``conflicts`` conflicts (at least one)."""
+    with Solver(name=SOLVER, bootstrap_with=problem) as solver:
+        solver.conf_budget(max(1, conflicts))
+        answer = solver.solve_limited()
+        if not answer:
+            return answer
+        return {n for n in solver.get_model() if n > 0}
+
+
 def find_countermodel(
     premises: Sequence[Clause | Formula],
     conclusion: Clause | Formula,
@@ -178,14 +190,11 @@ def find_countermodel(
         problem = [g for clause in clauses for g in encoding.ground(clause)]
         for function in sorted(functions):
             problem.extend(encoding.function_tables(function))
-        with Solver(name=SOLVER, bootstrap_with=problem) as solver:
-            solver.conf_budget(conflicts)
-            answer = solver.solve_limited()
-            if answer is None:
-                return None
-            if not answer:
-                continue
-            true = {n for n in solver.get_model() if n > 0}
+        true = solve(problem, conflicts)
+        if true is None:
+            return None
+        if true is False:
+            continue
         model = {key for key, n in encoding.numbers.items() if n in true}
         interpretation = Interpretation(
             size,
@@ -200,4 +209,6 @@ def find_countermodel(
         )
         if confirm_countermodel(interpretation, premises, conclusion) is None:
             return interpretation
+        # A decoded model the kernel refuses would be a bug of this module;
+        # it is never returned, and larger domains are still tried.
     return None
