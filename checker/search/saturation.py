@@ -54,6 +54,13 @@ def is_tautology(clause: Clause) -> bool:
     return False
 
 
+def _subsumes(general: Clause, specific: Clause, nodes: int) -> bool:
+    """Subsumption for deletion: theta(general) ⊆ specific, and general no
+    longer than specific; without the length condition a clause would
+    delete its own factors, and the search would lose completeness."""
+    return len(general.literal_set) <= len(specific.literal_set) and find_theta(general, specific, nodes) is not None
+
+
 def _inferences(store: list[Clause], given: int, active: list[int]) -> Iterator[Attempt]:
     yield from equality_resolvents(store, given)
     yield from factors(store, given)
@@ -106,7 +113,7 @@ def refute(
     while passive and given_count < max_given:
         _, given = heapq.heappop(passive)
         clause = store[given]
-        if any(find_theta(store[other], clause, subsumption_nodes) is not None for other in active):
+        if any(_subsumes(store[other], clause, subsumption_nodes) for other in active):
             continue
         given_count += 1
         active.append(given)

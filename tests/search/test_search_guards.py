@@ -113,3 +113,15 @@ def test_bogus_search_results_never_come_back_as_evidence(monkeypatch):
     assert found.evidence is None
     with_stated = reconstruct(premises, claimed, stated=[Substitution({X: belt}), None])
     assert with_stated.evidence is None
+
+
+def test_saturation_does_not_delete_a_clause_by_its_own_parent():
+    # The nucleus theta-subsumes (X and Y merged) its own resolvent with
+    # jam(sorter), although it is longer; deleting that resolvent would lose
+    # the refutation (common practice: subsumption for deletion needs the
+    # subsumer to be no longer than the subsumed clause).
+    nucleus = Clause([N("ready", Z), N("jam", X), N("jam", Y), P("jam", belt)])
+    clauses = [nucleus, Clause([P("ready", belt)]), Clause([P("jam", sorter)]), Clause([N("jam", belt)])]
+    chain = refute(clauses, 600, 60, 2000)
+    assert chain is not None
+    assert check_clause_step(clauses, Clause([]), Refutation(chain)) is None
