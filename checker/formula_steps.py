@@ -122,13 +122,38 @@ def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
 
 
 def check_negated_conjecture(
-    step: Step, conjecture: Formula, claimed: Clause | Formula, limits: SearchLimits
+    step: Step,
+    conjecture: Formula,
+    claimed: Clause | Formula,
+    table: SymbolTable,
+    limits: SearchLimits,
 ) -> StepResult:
-    """The step states the negation of the conjecture (or a consequence of it)."""
+    """The step states the negation of the conjecture: alpha-equivalent to
+    it, or equivalent to it (both directions kernel-replayed), or, when it
+    introduces symbols, the negation Skolemized.  Mere consequence is not
+    enough: when the conjecture is valid its negation entails anything, and
+    a dropped negation would pass unnoticed."""
     negated = negation(universal_closure(conjecture))
     conclusion = as_formula(claimed)
     if alpha_equivalent(negated, conclusion) or (
         isinstance(claimed, Formula) and alpha_equivalent(negation(conjecture), claimed)
     ):
         return _result(step, RECONSTRUCTED, "the negation of the conjecture")
-    return check_consequence(step, [negated], conclusion, limits, what="follows from the negation of the conjecture")
+    new = new_symbols(claimed, [conjecture])
+    if new and table.freshness_failure(step.name, new) is None:
+        # Negated and Skolemized in one step.
+        return check_introduction(step, [negated], claimed, [conjecture], table, limits)
+    forward = check_consequence(step, [negated], conclusion, limits, what="follows from the negation of the conjecture")
+    if forward.outcome != RECONSTRUCTED:
+        return forward
+    backward = check_consequence(step, [conclusion], negated, limits, what="implies the negation of the conjecture")
+    if backward.outcome == RECONSTRUCTED:
+        return _result(step, RECONSTRUCTED, "equivalent to the negation of the conjecture (both directions replayed)")
+    if backward.outcome == REFUTED:
+        return _result(
+            step, FAILED,
+            "not the negation of the conjecture: it follows from the negation but is weaker; "
+            "counter-model in which the step holds and the negated conjecture does not",
+            ("reason: not_the_negation", *backward.details),
+        )
+    return _result(step, UNPROVEN, "not shown equivalent to the negation of the conjecture within the search bounds")

@@ -81,7 +81,9 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         if len(parents) != 1:
             return _result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
                            ("reason: negation_parents",))
-        return check_negated_conjecture(step, as_formula(conjectures[0].content), claimed, context.limits)
+        return check_negated_conjecture(
+            step, as_formula(conjectures[0].content), claimed, context.symbols, context.limits
+        )
 
     if inference.evidence is not None:
         if not isinstance(claimed, Clause) or not all(isinstance(p, Clause) for p in premises):
