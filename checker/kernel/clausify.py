@@ -9,7 +9,8 @@ For each input formula, in order:
    equivalence occurs with both polarities, so the definition needs both
    directions.  Expanding an equivalence then copies literals only.
 3. One pass from the outside in: push negations inward (NNF), read every
-   other connective by its textbook expansion (``_EXPANSIONS``), give each
+   other connective by its textbook expansion (``_EXPANSIONS``; a negated
+   ``<=>`` is read as ``<~>`` and the other way round), give each
    universal variable a clause variable of its own (names kept where no
    other binder took them), replace each existential variable by a Skolem
    term, and multiply out disjunctions into clauses (CNF).
