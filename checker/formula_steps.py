@@ -18,8 +18,8 @@ from checker.freshness import SymbolTable, describe_symbol, new_symbols
 from checker.kernel.clauses import Clause
 from checker.kernel.entailment import check_entailment
 from checker.kernel.failure import Failure
-from checker.kernel.formulas import Formula, alpha_equivalent, formula_of_clause, negation, universal_closure
-from checker.kernel.introductions import defined_symbol, skolemize
+from checker.kernel.formulas import FORALL, Formula, alpha_equivalent, formula_of_clause, negation, universal_closure
+from checker.kernel.introductions import check_definition, skolemize
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
@@ -107,18 +107,31 @@ def check_introduction(
 
 
 def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
-    """An introduced definition: the right shape, and its symbol fresh."""
+    """An introduced definition: the defined symbol is a predicate of one
+    of its sides that is fresh, and the formula has a definition's shape.
+    Sides whose predicate is not in the problem are tried first, so that a
+    failure names the symbol the definition most likely introduces."""
     statement = step.statement
     assert statement is not None
-    content = statement.content
-    formula = as_formula(content)
-    symbol = defined_symbol(formula)
-    if isinstance(symbol, Failure):
-        return StepResult(step.name, FAILED, "definition", symbol.message, step.location, (f"reason: {symbol.reason}",))
-    not_fresh = table.freshness_failure(step.name, {symbol})
-    if not_fresh:
-        return StepResult(step.name, FAILED, "definition", not_fresh, step.location, ("reason: not_fresh",))
-    return StepResult(step.name, RECONSTRUCTED, "definition", f"defines fresh symbol `{describe_symbol(symbol)}`", step.location)
+    formula = as_formula(statement.content)
+    body = formula
+    while body.connective == FORALL:
+        body = body.arguments[0]
+    sides = [(a.atom.symbol, a.atom.arity) for a in body.arguments if a.atom is not None and a.atom.symbol != "="]
+    candidates = sorted(dict.fromkeys(sides), key=lambda symbol: symbol in table.problem)
+    failure = Failure("not_a_definition", f"`{formula}` has no side that is a predicate applied to variables")
+    for number, symbol in enumerate(candidates):
+        shape = check_definition(formula, symbol)
+        if shape is None:
+            not_fresh = table.freshness_failure(step.name, {symbol})
+            if not_fresh is None:
+                return StepResult(
+                    step.name, RECONSTRUCTED, "definition", f"defines fresh symbol `{describe_symbol(symbol)}`", step.location
+                )
+            shape = Failure("not_fresh", not_fresh)
+        if number == 0:
+            failure = shape
+    return StepResult(step.name, FAILED, "definition", failure.message, step.location, (f"reason: {failure.reason}",))
 
 
 def check_negated_conjecture(

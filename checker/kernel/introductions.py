@@ -125,12 +125,14 @@ def skolemize(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Te
     return results[0]
 
 
-def defined_symbol(definition: Formula) -> tuple[str, int] | Failure:
-    """The symbol a definition introduces, when it has a definition's shape:
-    ``! [X..] : (d(X..) <=> F)`` (or ``=>`` either way), with ``d`` applied to
-    distinct variables that are exactly the free variables of ``F``, and
-    ``d`` not occurring in ``F``.  Such a formula can always be made true by
-    interpreting a fresh ``d``."""
+def check_definition(definition: Formula, symbol: tuple[str, int]) -> Failure | None:
+    """None when ``definition`` defines ``symbol``: it reads
+    ``! [X..] : (d(X..) <=> F)`` (or ``=>`` either way) with ``d`` the symbol
+    applied to distinct variables that are exactly the free variables of
+    ``F``, and ``d`` not occurring in ``F``.  Such a formula can always be
+    made true by interpreting a fresh ``d``; freshness is checked by the
+    caller."""
+    name, arity = symbol
     body = definition
     while body.connective == FORALL:
         body = body.arguments[0]
@@ -139,20 +141,19 @@ def defined_symbol(definition: Formula) -> tuple[str, int] | Failure:
     if body.connective not in (IFF, IMPLIES):
         return Failure("not_a_definition", f"`{definition}` is not an equivalence or implication")
     for defined, meaning in (body.arguments, body.arguments[::-1]):
-        if defined.connective != ATOM:
-            continue
         atom = defined.atom
-        if atom.symbol == "=" or not all(a.is_variable for a in atom.arguments):
+        if defined.connective != ATOM or atom.symbol != name or atom.arity != arity or name == "=":
             continue
-        if len(set(atom.arguments)) != atom.arity:
-            continue
-        if set(atom.arguments) != free_variables(meaning):
+        arguments = atom.arguments
+        if not all(a.is_variable for a in arguments) or len(set(arguments)) != arity:
+            return Failure("definition_arguments", f"defined atom `{atom}` is not `{name}` applied to distinct variables")
+        if set(arguments) != free_variables(meaning):
             return Failure(
                 "definition_arguments",
-                f"defined atom `{atom}` has arguments {{{_names(atom.arguments)}}} but its definition has "
+                f"defined atom `{atom}` has arguments {{{_names(arguments)}}} but its definition has "
                 f"free variables {{{_names(free_variables(meaning))}}}",
             )
-        if (atom.symbol, atom.arity) in symbols_of_formula(meaning):
-            return Failure("definition_circular", f"`{atom.symbol}` occurs in its own definition `{meaning}`")
-        return (atom.symbol, atom.arity)
-    return Failure("not_a_definition", f"neither side of `{body}` is a new symbol applied to distinct variables")
+        if symbol in symbols_of_formula(meaning):
+            return Failure("definition_circular", f"`{name}` occurs in its own definition `{meaning}`")
+        return None
+    return Failure("not_a_definition", f"neither side of `{body}` is an atom of `{name}/{arity}`")
