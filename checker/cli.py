@@ -12,7 +12,7 @@ import click
 from checker.record import check_record
 from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
 from checker.report import SAFETY_NOTE, render_json, render_text
-from checker.run import check
+from checker.run import check, describe_internal_error
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 
 
@@ -31,11 +31,11 @@ class _Group(click.Group):
             sys.exit(EXIT_USAGE)
         except click.exceptions.Abort:
             sys.exit(EXIT_USAGE)
-        except SystemExit:
-            raise
-        except BaseException:  # noqa: BLE001 - report, never crash
-            click.echo("assay: internal error (please report):", err=True)
-            click.echo(traceback.format_exc(limit=-3), err=True)
+        except KeyboardInterrupt:
+            click.echo("assay: interrupted", err=True)
+            sys.exit(EXIT_USAGE)
+        except Exception as error:  # noqa: BLE001 - report, never crash
+            click.echo(f"assay: {describe_internal_error(error)}", err=True)
             sys.exit(EXIT_CODES[INTERNAL_ERROR])
 
 
@@ -81,8 +81,11 @@ def check_command(certificates, problem, include_dirs, report_format, all_steps,
     limits = _limits(search_limits)
     reports: list[Report] = [check(path, problem, include_dirs, limits) for path in certificates]
     if record_path:
-        with open(record_path, "w", encoding="utf-8") as out:
-            json.dump(check_record(reports, limits), out, indent=2)
+        try:
+            with open(record_path, "w", encoding="utf-8") as out:
+                json.dump(check_record(reports, limits), out, indent=2)
+        except OSError as error:
+            raise click.FileError(record_path, hint=error.strerror or str(error)) from None
     if report_format == "json":
         click.echo(render_json(reports))
     else:

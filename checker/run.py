@@ -66,8 +66,15 @@ def check(
         return Report(path, UNREADABLE, problem=problem, error=text)
     except OSError as error:
         return Report(path, UNREADABLE, problem=problem, error=f"{path}: cannot read: {error.strerror or error}")
-    except Exception:  # noqa: BLE001 - a bug must never turn into a verdict
-        return Report(path, INTERNAL_ERROR, problem=problem, error="internal error:\n" + traceback.format_exc())
+    except Exception as error:  # noqa: BLE001 - a bug must never turn into a verdict
+        return Report(path, INTERNAL_ERROR, problem=problem, error=describe_internal_error(error))
+
+
+def describe_internal_error(error: BaseException) -> str:
+    """One line for a bug in assay: what was raised and where, no traceback."""
+    frames = traceback.extract_tb(error.__traceback__)
+    where = f" at {os.path.basename(frames[-1].filename)}:{frames[-1].lineno}" if frames else ""
+    return f"internal error in assay ({type(error).__name__}: {error}{where}); nothing was accepted; please report it"
 
 
 def discover_problem(path: str, document: Document, include_dirs: Sequence[str]) -> str | None:

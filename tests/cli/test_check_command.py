@@ -102,3 +102,24 @@ def test_module_entry_point_runs_the_same_command():
     )
     assert completed.returncode == 1
     assert "rejected" in completed.stdout
+
+
+def test_internal_error_exits_4_without_traceback_or_acceptance(monkeypatch):
+    # A bug anywhere must never be reported as accepted (DESIGN section 4).
+    import checker.run
+
+    def broken_plan(document):
+        raise RuntimeError("planted fault")
+
+    monkeypatch.setattr(checker.run, "make_plan", broken_plan)
+    code, output = run(str(DEMO / "interlock.jsonl"), str(DEMO / "interlock_broken.jsonl"))
+    assert code == 4
+    assert "internal error in assay (RuntimeError: planted fault at" in output
+    assert "accepted" not in output.replace("nothing was accepted", "")
+    assert "Traceback" not in output
+
+
+def test_unwritable_record_is_a_usage_error(tmp_path):
+    code, output = run(str(DEMO / "interlock.jsonl"), "--record", str(tmp_path / "missing" / "record.json"))
+    assert code == 2
+    assert "record.json" in output
