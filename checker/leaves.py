@@ -16,10 +16,12 @@ from checker.formula_steps import as_formula
 from checker.kernel.entailment import check_entailment
 from checker.kernel.formulas import Formula, alpha_equivalent
 from checker.kernel.rules import check_conclusion
-from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
+from checker.kernel.models import confirm_countermodel, render_countermodel
+from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.entailment import find_entailment
+from checker.search.models import find_countermodel
 from checker.search.subsumption import find_theta
 from formats.derivation import Document, Origin, Statement
 
@@ -95,4 +97,10 @@ def _check_valid_clause(step: Step, statement: Statement, origin: Origin, limits
     found = reconstruct([], claimed, rule_hint=kind, limits=limits)
     if found.evidence is not None:
         return StepResult(step.name, RECONSTRUCTED, kind, "valid clause: its negation is refuted from no premises", step.location)
+    model = find_countermodel([], claimed)
+    if model is not None and confirm_countermodel(model, [], claimed) is None:
+        return StepResult(
+            step.name, REFUTED, kind, "not a valid clause: counter-model in which it is false", step.location,
+            tuple(render_countermodel(model, [], claimed).splitlines()),
+        )
     return StepResult(step.name, UNPROVEN, kind, "not shown valid within the search bounds", step.location)

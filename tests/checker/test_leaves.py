@@ -1,0 +1,87 @@
+"""Leaves: linked to the problem by name and content, theory axioms shown
+valid, and nothing smuggled in."""
+
+from checker.outcomes import ACCEPTED, ASSUMED, CHECKED, FAILED, RECONSTRUCTED, REFUTED
+from checker.run import NO_PROBLEM_CAUTION, check
+
+PROBLEM = """
+cnf(dock_rule, axiom, ~ berth(S, D) | moored(S)).
+cnf(tanker_berth, axiom, berth(tanker3, dock2)).
+fof(goal, conjecture, moored(tanker3)).
+"""
+
+
+def run(tmp_path, proof: str, problem: str | None = PROBLEM):
+    (tmp_path / "proof.p").write_text(proof)
+    if problem is None:
+        return check(str(tmp_path / "proof.p"))
+    (tmp_path / "problem.p").write_text(problem)
+    return check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"))
+
+
+def outcomes(report):
+    return {step.name: step for step in report.steps}
+
+
+def test_a_variant_or_weakening_of_an_axiom_is_that_axiom(tmp_path):
+    # Common practice: a clause leaf may rename variables, reorder literals
+    # or add literals (a weakening); theta(problem clause) ⊆ leaf.
+    report = run(
+        tmp_path,
+        """
+        cnf(l1, axiom, moored(V) | ~ berth(V, W), file('problem.p', dock_rule)).
+        cnf(l2, axiom, berth(tanker3, dock2) | moored(barge1), file('problem.p', tanker_berth)).
+        """,
+    )
+    steps = outcomes(report)
+    assert steps["l1"].outcome == CHECKED and "axiom `dock_rule`" in steps["l1"].message
+    assert steps["l2"].outcome == CHECKED
+
+
+def test_a_stronger_clause_is_not_in_the_problem(tmp_path):
+    report = run(tmp_path, "cnf(l1, axiom, moored(V), file('problem.p', dock_rule)).\n")
+    leaf = outcomes(report)["l1"]
+    assert leaf.outcome == FAILED
+    assert "not in the problem" in leaf.message and "~berth(S,D) | moored(S)" in leaf.message
+
+
+def test_the_conjecture_cannot_be_used_as_an_axiom(tmp_path):
+    report = run(tmp_path, "fof(l1, axiom, moored(tanker3), file('problem.p', goal)).\n")
+    leaf = outcomes(report)["l1"]
+    assert leaf.outcome == FAILED
+    assert "not in the problem as an axiom" in leaf.message and "conjecture `goal`" in leaf.message
+
+
+def test_equality_axioms_are_shown_valid_and_a_false_one_refuted(tmp_path):
+    # Common practice: reflexivity, symmetry, transitivity and congruence
+    # hold in every model with equality; X = Y does not (two elements).
+    report = run(
+        tmp_path,
+        """
+        cnf(refl, axiom, X = X, theory(equality)).
+        cnf(sym, axiom, X != Y | Y = X, theory(equality)).
+        cnf(trans, axiom, X != Y | Y != Z | X = Z, theory(equality)).
+        cnf(cong, axiom, X != Y | ~ moored(X) | moored(Y), theory(equality)).
+        cnf(bogus, axiom, X = Y, theory(equality)).
+        """,
+    )
+    steps = outcomes(report)
+    for name in ("refl", "sym", "trans", "cong"):
+        assert steps[name].outcome == RECONSTRUCTED, steps[name]
+    assert steps["bogus"].outcome == REFUTED
+    assert "domain = {0, 1}" in steps["bogus"].details
+
+
+def test_without_a_problem_leaves_are_assumed_and_the_report_says_so(tmp_path):
+    report = run(
+        tmp_path,
+        """
+        cnf(a1, axiom, berth(tanker3, dock2)).
+        cnf(a2, axiom, ~ berth(tanker3, dock2)).
+        cnf(c1, plain, $false, inference(resolve, [status(thm)], [a1, a2])).
+        """,
+        problem=None,
+    )
+    assert report.verdict == ACCEPTED
+    assert [s.name for s in report.steps if s.outcome == ASSUMED] == ["a1", "a2"]
+    assert NO_PROBLEM_CAUTION in report.cautions
