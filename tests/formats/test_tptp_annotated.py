@@ -157,8 +157,8 @@ def test_non_name_parents_are_kept_as_info():
 
 def test_introduced_sources():
     # TPTP syntax BNF, <internal_source> ::= introduced(<intro_type><optional_info>)
-    assert source_of("introduced(definition, [new_symbols(naming, [sp0]), x])") == Origin(
-        "introduced", ("definition", "new_symbols(naming,[sp0])", "x")
+    assert source_of("introduced(definition, [new_symbols(naming, [named_part0]), x])") == Origin(
+        "introduced", ("definition", "new_symbols(naming,[named_part0])", "x")
     )
     assert source_of("introduced(tautology)") == Origin("introduced", ("tautology",))
 
