@@ -22,8 +22,6 @@ class Failure:
 
 
 def _abbreviated(text: str) -> str:
-    if len(text) <= SHOWN_CHARACTERS:
-        return text
     head = SHOWN_CHARACTERS * 3 // 4
     return f"{text[:head]} … {text[head - SHOWN_CHARACTERS:]}"
 

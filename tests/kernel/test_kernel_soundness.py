@@ -134,11 +134,16 @@ def test_chain_is_sound():
 def refutation_steps(draw):
     """A claimed clause, a premise that generalizes some of its literals
     (plus random premises), and a chain resolving that premise's instance
-    away against the negated claim, literal by literal; sometimes spoilt."""
+    away against the negated claim, literal by literal; sometimes the
+    premise has a literal too many, sometimes the chain is spoilt."""
     claimed = draw(clauses(min_size=1, max_size=2))
     chosen = draw(st.lists(st.sampled_from(claimed.literals), min_size=1, max_size=3))
     bindings: dict = {}
-    general = Clause(Literal(lit.positive, generalize_atom(draw, lit.atom, bindings)) for lit in chosen)
+    general = [Literal(lit.positive, generalize_atom(draw, lit.atom, bindings)) for lit in chosen]
+    if not mostly(draw):
+        # a literal the claim lacks: the chain cannot reach the empty clause
+        general.append(draw(literals))
+    general = Clause(general)
     premises = [general, *draw(st.lists(clauses(min_size=1), max_size=1))]
     units = negated_claim(premises, claimed)
     grounded = [unit.literals[0].negated() for unit in units]
@@ -149,7 +154,7 @@ def refutation_steps(draw):
     available = [*premises, *units]
     steps = []
     current_index, current, substitution = 0, general.instance(tau), tau
-    while not current.is_empty:
+    while not current.is_empty and current.literals[0] in grounded:
         unit = grounded.index(current.literals[0])
         steps.append(Resolution(current_index, 0, len(premises) + unit, 0, substitution))
         current = replay(available, steps[-1])
