@@ -49,7 +49,6 @@ from strategies import (
     mostly,
     paramodulation_steps,
     resolution_steps,
-    substitution_with,
     substitutions,
 )
 
