@@ -101,6 +101,12 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
             return _result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
+        if found.wrong_bindings:
+            # A certificate that misstates its unifier is wrong even when
+            # another unifier works: its producer must see it.
+            return _result(
+                step, FAILED, found.closest.message, ("reason: wrong_bindings", *closest_lines(found.closest))
+            )
         model = find_countermodel(premises, claimed)
         if model is not None and confirm_countermodel(model, premises, claimed) is None:
             return _result(

@@ -101,6 +101,8 @@ class Reconstruction:
     theta: Substitution = IDENTITY
     closest: Candidate | None = None
     description: str = ""
+    wrong_bindings: bool = False
+    """the step holds, but not with the bindings the derivation states"""
 
 
 # Stated bindings -----------------------------------------------------------
@@ -331,7 +333,7 @@ def reconstruct(
     wrong = stated_disagreement(premises, given, free.evidence) or "the stated bindings do not fit the inference"
     computed = _computed(premises, claimed, free.evidence, free.theta)
     candidate = Candidate(free.description, computed, claimed, (), (), wrong)
-    return Reconstruction(None, IDENTITY, candidate)
+    return Reconstruction(None, IDENTITY, candidate, wrong_bindings=True)
 
 
 def _computed(premises: Sequence[Clause], claimed: Clause, evidence: Evidence, theta: Substitution) -> Clause:

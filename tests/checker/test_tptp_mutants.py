@@ -100,7 +100,10 @@ def test_a_wrong_stated_binding_fails_although_another_unifier_would_have_worked
         assert isinstance(broken.source, Inference)
         assert [p.name for p in broken.source.parents] == [p.name for p in original.source.parents]
         assert [p.bindings for p in broken.source.parents] != [p.bindings for p in original.source.parents]
-        assert _report(mutant).first_failure.name == mutant.broken_step
+        failure = _report(mutant).first_failure
+        assert failure.name == mutant.broken_step
+        assert failure.outcome == FAILED and "reason: wrong_bindings" in failure.details
+        assert "the stated bindings of premise" in failure.message
 
 
 def test_the_mutants_cover_the_kinds_of_error_a_prover_makes():

@@ -41,7 +41,7 @@ def test_a_wrong_stated_binding_fails_although_the_mgu_works():
     stated = [Substitution({X: ben}), None]
     assert reconstruct([BADGE, FACT], CLAIM, "resolution").evidence is not None
     found = reconstruct([BADGE, FACT], CLAIM, "resolution", stated=stated)
-    assert found.evidence is None
+    assert found.evidence is None and found.wrong_bindings
     assert found.closest is not None
     assert "stated bindings of premise 0 are wrong" in found.closest.message
     assert "X -> ben" in found.closest.message and "X -> ana" in found.closest.message
