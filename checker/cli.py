@@ -5,12 +5,11 @@ from __future__ import annotations
 import json
 import sys
 from dataclasses import fields, replace
-import traceback
 
 import click
 
-from checker.record import check_record
 from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
+from checker.record import check_record
 from checker.report import SAFETY_NOTE, render_json, render_text
 from checker.run import check, describe_internal_error
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits

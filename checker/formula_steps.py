@@ -18,15 +18,25 @@ from checker.freshness import SymbolTable, describe_symbol, new_symbols
 from checker.kernel.clauses import Clause
 from checker.kernel.entailment import check_entailment
 from checker.kernel.failure import Failure
-from checker.kernel.formulas import FORALL, Formula, alpha_equivalent, formula_of_clause, negation, universal_closure
-from checker.kernel.introductions import check_definition, skolemize
+from checker.kernel.formulas import (
+    EXISTS,
+    FORALL,
+    IMPLIES,
+    Formula,
+    alpha_equivalent,
+    formula_of_clause,
+    negation,
+    universal_closure,
+)
+from checker.kernel.introductions import check_choice_axiom, check_definition, skolemize
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.entailment import find_entailment
 from checker.search.models import find_countermodel
-from checker.search.reconstruct import SearchLimits
-from checker.search.witnesses import Misfit, next_witness
+from checker.search.reconstruct import SearchLimits, reconstruct
+from checker.search.witnesses import Misfit, matching_witnesses, next_witness
+from formats.derivation import Origin
 
 
 def as_formula(content: Clause | Formula) -> Formula:
@@ -38,8 +48,13 @@ def as_formula(content: Clause | Formula) -> Formula:
 
 
 def _result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
-    assert step.inference is not None
-    return StepResult(step.name, outcome, step.inference.rule, message, step.location, tuple(details))
+    rule = step.inference.rule if step.inference is not None else _leaf_kind(step)
+    return StepResult(step.name, outcome, rule, message, step.location, tuple(details))
+
+
+def _leaf_kind(step: Step) -> str:
+    origin = step.statement.source if step.statement is not None else None
+    return " ".join((origin.kind, *origin.detail[:1])) if isinstance(origin, Origin) else "leaf"
 
 
 def check_consequence(
@@ -106,6 +121,75 @@ def check_introduction(
     )
 
 
+def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits: SearchLimits) -> StepResult:
+    """A leaf the prover introduced rather than took from the problem: a
+    definition, an axiom of choice (a Skolem axiom), or a statement valid in
+    itself (a tautology, an equality axiom)."""
+    content = step.statement.content
+    if origin.detail[:1] == ("definition",):
+        return check_definition_leaf(step, table)
+    if isinstance(content, Formula):
+        choice = _choice_parts(universal_closure(content))
+        if choice is not None:
+            return check_choice_leaf(step, universal_closure(content), *choice, table)
+    return check_valid_leaf(step, limits)
+
+
+def _choice_parts(axiom: Formula) -> tuple[Formula, dict] | None:
+    """The quantifier of what looks like a Skolem axiom, and the witnesses
+    found where its bound variables stand in the instance (untrusted)."""
+    body = axiom
+    while body.connective == FORALL:
+        body = body.arguments[0]
+    if body.connective != IMPLIES:
+        return None
+    antecedent, consequent = body.arguments
+    if antecedent.connective == EXISTS:
+        quantifier, instance = antecedent, consequent
+    elif consequent.connective == FORALL:
+        quantifier, instance = consequent, antecedent
+    else:
+        return None
+    witnesses = matching_witnesses(quantifier, instance)
+    return (quantifier, witnesses) if witnesses else None
+
+
+def check_choice_leaf(step: Step, axiom: Formula, quantifier: Formula, witnesses: dict, table: SymbolTable) -> StepResult:
+    """An axiom of choice: the kernel confirms it is the Skolem axiom of its
+    witnesses, and their symbols must be fresh."""
+    failure = check_choice_axiom(axiom, witnesses)
+    if failure is not None:
+        return _result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
+    symbols = {(w.symbol, w.arity) for w in witnesses.values()}
+    not_fresh = table.freshness_failure(step.name, symbols)
+    if not_fresh:
+        return _result(step, FAILED, not_fresh, ("reason: not_fresh",))
+    named = ", ".join(describe_symbol(s) for s in sorted(symbols))
+    return _result(step, RECONSTRUCTED, f"Skolem axiom (axiom of choice) for fresh {named}")
+
+
+def check_valid_leaf(step: Step, limits: SearchLimits) -> StepResult:
+    """A statement that needs no premises: the kernel replays a refutation of
+    its negation from nothing (equality reasoning included); if that is not
+    found, a counter-model shows it is not valid."""
+    claimed = step.statement.content
+    if isinstance(claimed, Clause):
+        found = reconstruct([], claimed, rule_hint=_leaf_kind(step), limits=limits)
+        if found.evidence is not None:
+            return _result(step, RECONSTRUCTED, "valid clause: its negation is refuted from no premises")
+    else:
+        chain = find_entailment([], universal_closure(claimed), limits)
+        if chain is not None and check_entailment([], universal_closure(claimed), chain) is None:
+            return _result(step, RECONSTRUCTED, "valid formula: its negation is refuted from no premises")
+    model = find_countermodel([], claimed)
+    if model is not None and confirm_countermodel(model, [], claimed) is None:
+        return _result(
+            step, REFUTED, "not valid: counter-model in which it is false",
+            render_countermodel(model, [], claimed).splitlines(),
+        )
+    return _result(step, UNPROVEN, "not shown valid within the search bounds")
+
+
 def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
     """An introduced definition: the defined symbol is a predicate of one
     of its sides that is fresh, and the formula has a definition's shape.
@@ -125,13 +209,11 @@ def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
         if shape is None:
             not_fresh = table.freshness_failure(step.name, {symbol})
             if not_fresh is None:
-                return StepResult(
-                    step.name, RECONSTRUCTED, "definition", f"defines fresh symbol `{describe_symbol(symbol)}`", step.location
-                )
+                return _result(step, RECONSTRUCTED, f"defines fresh symbol `{describe_symbol(symbol)}`")
             shape = Failure("not_fresh", not_fresh)
         if number == 0:
             failure = shape
-    return StepResult(step.name, FAILED, "definition", failure.message, step.location, (f"reason: {failure.reason}",))
+    return _result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
 
 
 def check_negated_conjecture(

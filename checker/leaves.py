@@ -11,17 +11,21 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
+from checker.formula_steps import as_formula, check_introduced_leaf
+from checker.freshness import SymbolTable
 from checker.kernel.clauses import Clause
-from checker.formula_steps import as_formula
 from checker.kernel.entailment import check_entailment
 from checker.kernel.formulas import Formula, alpha_equivalent
 from checker.kernel.rules import check_conclusion
-from checker.kernel.models import confirm_countermodel, render_countermodel
-from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
+from checker.outcomes import (
+    ASSUMED,
+    CHECKED,
+    FAILED,
+    StepResult,
+)
 from checker.plan import Step
-from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.entailment import find_entailment
-from checker.search.models import find_countermodel
+from checker.search.reconstruct import SearchLimits
 from checker.search.subsumption import find_theta
 from formats.derivation import Document, Origin, Statement
 
@@ -49,13 +53,14 @@ def _clause_form_of(problem_content: Formula, leaf_content: Clause, limits: Sear
     return chain is not None and check_entailment([premise], conclusion, chain) is None
 
 
-def check_leaf(step: Step, problem: Document | None, limits: SearchLimits) -> StepResult:
-    """The outcome of a leaf: which problem statement it is, or why it is none."""
+def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table: SymbolTable) -> StepResult:
+    """The outcome of a leaf: which problem statement it is, or why it is
+    none; introduced and theory leaves need no problem."""
     statement = step.statement
     assert statement is not None
     origin = statement.source if isinstance(statement.source, Origin) else Origin("unknown")
-    if origin.kind in ("theory", "introduced") and origin.detail[:1] != ("definition",):
-        return _check_valid_clause(step, statement, origin, limits)
+    if origin.kind in ("theory", "introduced"):
+        return check_introduced_leaf(step, origin, table, limits)
     if problem is None:
         return StepResult(step.name, ASSUMED, "leaf", "taken as given: no problem to check it against", step.location)
     cited = origin.detail[1] if origin.kind == "file" and len(origin.detail) > 1 and origin.detail[1] else statement.name
@@ -85,22 +90,3 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits) -> St
 def _by_name_first(statements: Sequence[Statement], name: str) -> list[Statement]:
     named = [s for s in statements if s.name == name]
     return named + [s for s in statements if s.name != name]
-
-
-def _check_valid_clause(step: Step, statement: Statement, origin: Origin, limits: SearchLimits) -> StepResult:
-    """A theory axiom or tautology needs no problem: the kernel replays a
-    refutation of its negation from nothing (equality axioms included)."""
-    claimed = statement.content
-    kind = " ".join((origin.kind, *origin.detail[:1]))
-    if not isinstance(claimed, Clause):
-        return StepResult(step.name, UNPROVEN, kind, "no check for an introduced formula of this kind", step.location)
-    found = reconstruct([], claimed, rule_hint=kind, limits=limits)
-    if found.evidence is not None:
-        return StepResult(step.name, RECONSTRUCTED, kind, "valid clause: its negation is refuted from no premises", step.location)
-    model = find_countermodel([], claimed)
-    if model is not None and confirm_countermodel(model, [], claimed) is None:
-        return StepResult(
-            step.name, REFUTED, kind, "not a valid clause: counter-model in which it is false", step.location,
-            tuple(render_countermodel(model, [], claimed).splitlines()),
-        )
-    return StepResult(step.name, UNPROVEN, kind, "not shown valid within the search bounds", step.location)

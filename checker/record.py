@@ -8,8 +8,8 @@ it states plainly what a checked proof does and does not show.
 from __future__ import annotations
 
 import hashlib
-from dataclasses import asdict
 import platform
+from dataclasses import asdict
 from datetime import datetime, timezone
 from importlib.metadata import PackageNotFoundError, version
 

@@ -12,10 +12,9 @@ import os
 import traceback
 from collections.abc import Sequence
 
+from checker.freshness import build_symbol_table
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import FALSUM
-from checker.formula_steps import check_definition_leaf
-from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.nested import check_with_nested
 from checker.outcomes import (
@@ -126,10 +125,8 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
             results.extend(faulted)
         elif inner:
             results.extend(check_with_nested(step, inner, statements, check_step))
-        elif step.is_leaf and _is_definition(step):
-            results.append(check_definition_leaf(step, context.symbols))
         elif step.is_leaf:
-            results.append(check_leaf(step, problem, limits))
+            results.append(check_leaf(step, problem, limits, context.symbols))
         else:
             results.append(check_step(step, [statements.get(name) for name in step.parents]))
         results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
@@ -206,11 +203,6 @@ def _nested_by_outer(plan) -> dict[str, list]:
         if step.statement is None:
             found.setdefault(step.name.rpartition("/")[0], []).append(step)
     return found
-
-
-def _is_definition(step) -> bool:
-    source = step.statement.source
-    return isinstance(source, Origin) and source.kind == "introduced" and source.detail[:1] == ("definition",)
 
 
 def _whole_derivation(document: Document) -> list[StepResult]:

@@ -13,13 +13,25 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from checker.formula_steps import as_formula, check_consequence, check_introduction, check_negated_conjecture
+from checker.formula_steps import (
+    as_formula,
+    check_consequence,
+    check_introduction,
+    check_negated_conjecture,
+)
 from checker.freshness import SymbolTable, new_symbols
 from checker.kernel.clauses import Clause
+from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
-from checker.kernel.models import confirm_countermodel, render_countermodel
-from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
+from checker.outcomes import (
+    CHECKED,
+    FAILED,
+    RECONSTRUCTED,
+    REFUTED,
+    UNPROVEN,
+    StepResult,
+)
 from checker.plan import Step
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct

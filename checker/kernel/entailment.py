@@ -13,8 +13,8 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from checker.kernel.clausify import Clausification, clausify
 from checker.kernel.clauses import Clause
+from checker.kernel.clausify import Clausification, clausify
 from checker.kernel.failure import Failure, quote
 from checker.kernel.formulas import Formula, formula_of_clause, negation, universal_closure
 from checker.kernel.rules import Chain, replay

@@ -20,6 +20,7 @@ from checker.kernel.formulas import (
     IFF,
     IMPLIES,
     Formula,
+    alpha_equivalent,
     argument_polarities,
     free_variables,
     make,
@@ -123,6 +124,38 @@ def skolemize(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Te
             )
         return Failure("no_occurrence", f"`{quantifier}` does not occur in `{premise}`")
     return results[0]
+
+
+def check_choice_axiom(axiom: Formula, witnesses: Mapping[Term, Term]) -> Failure | None:
+    """None when ``axiom`` is the Skolem axiom (TPTP's ``axiom_of_choice``)
+    of the given witnesses: ``! [free] : ((? [Y] : G) => G{Y := w})`` or
+    ``! [free] : (G{Y := w} => ! [Y] : G)``, variables left unwitnessed
+    staying quantified.  It holds in an extension of any model that
+    interprets the witnesses' fresh symbols as choice functions."""
+    body = axiom
+    while body.connective == FORALL:
+        body = body.arguments[0]
+    if free_variables(axiom):
+        return Failure("choice_not_closed", f"axiom `{axiom}` has free variables")
+    if body.connective != IMPLIES:
+        return Failure("not_a_choice_axiom", f"`{axiom}` is not an implication under universal quantifiers")
+    antecedent, consequent = body.arguments
+    if antecedent.connective == EXISTS:
+        quantifier, instance = antecedent, consequent
+    elif consequent.connective == FORALL:
+        quantifier, instance = consequent, antecedent
+    else:
+        return Failure("not_a_choice_axiom", f"neither `{antecedent}` is existential nor `{consequent}` universal")
+    failure = _witness_failure(quantifier, quantifier, witnesses)
+    if failure is not None:
+        return failure
+    expected = substitute_free(quantifier.arguments[0], Substitution(dict(witnesses)))
+    remaining = tuple(v for v in quantifier.variables if v not in witnesses)
+    if remaining:
+        expected = quantified(quantifier.connective, remaining, expected)
+    if not alpha_equivalent(expected, instance):
+        return Failure("not_a_choice_axiom", f"`{instance}` is not `{expected}`, the quantified formula at the witnesses")
+    return None
 
 
 def check_definition(definition: Formula, symbol: tuple[str, int]) -> Failure | None:

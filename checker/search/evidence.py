@@ -13,8 +13,8 @@ shared with the saturation search, which calls them on its clause store.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterator, Sequence
 import dataclasses
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
 
 from checker.kernel.clauses import Clause, Literal, is_equality

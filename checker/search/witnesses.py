@@ -14,7 +14,13 @@ from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 
 from checker.kernel.clauses import Clause
-from checker.kernel.formulas import EXISTS, FORALL, Formula, argument_polarities, free_variables
+from checker.kernel.formulas import (
+    EXISTS,
+    FORALL,
+    Formula,
+    argument_polarities,
+    free_variables,
+)
 from checker.kernel.terms import Term, application, subterms, variable
 
 Symbol = tuple[str, int]
@@ -120,3 +126,31 @@ def next_witness(premises: Sequence[Formula], conclusion: Clause | Formula, rema
             "replace (an existential of negative polarity, a universal of positive polarity, or under an equivalence)",
         )
     return Misfit(symbol, "no_quantifier", f"new symbol `{name}` witnesses no quantifier of the premises")
+
+
+def matching_witnesses(quantifier: Formula, instance: Formula) -> dict[Term, Term] | None:
+    """The terms that stand, in ``instance``, where ``quantifier``'s body has
+    its bound variables: a parallel walk of the two formulas, None when their
+    shapes differ or a variable stands for two different terms."""
+    bound = set(quantifier.variables)
+    found: dict[Term, Term] = {}
+    stack = [(quantifier.arguments[0], instance)]
+    while stack:
+        pattern, target = stack.pop()
+        if pattern.connective != target.connective or len(pattern.arguments) != len(target.arguments):
+            return None
+        if pattern.atom is None:
+            stack.extend(zip(pattern.arguments, target.arguments))
+            continue
+        terms = [(pattern.atom, target.atom)]
+        while terms:
+            left, right = terms.pop()
+            if left in bound:
+                if found.setdefault(left, right) is not right:
+                    return None
+            elif left.is_variable or right.is_variable or left.symbol != right.symbol or left.arity != right.arity:
+                if left is not right:
+                    return None
+            else:
+                terms.extend(zip(left.arguments, right.arguments))
+    return found

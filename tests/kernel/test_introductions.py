@@ -4,7 +4,7 @@ import pytest
 
 from checker.kernel.failure import Failure
 from checker.kernel.formulas import alpha_equivalent
-from checker.kernel.introductions import check_definition, skolemize
+from checker.kernel.introductions import check_choice_axiom, check_definition, skolemize
 from checker.kernel.terms import application, variable
 from formats.tptp import parse_formula, parse_term
 
@@ -152,3 +152,34 @@ def test_formulas_that_do_not_define_the_symbol(text, symbol, reason, words):
     assert isinstance(failure, Failure)
     assert failure.reason == reason
     assert words in failure.message
+
+
+@pytest.mark.parametrize(
+    ("text", "witnesses"),
+    [
+        # Common practice: the Skolem axiom of f for ? [Y] : p(X,Y) under ! [X].
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f(X)))", {"Y": "f(X)"}),
+        # The dual for a universal of negative polarity.
+        ("! [X] : (p(X,g(X)) => (! [Y] : p(X,Y)))", {"Y": "g(X)"}),
+        # One of two variables witnessed, the other still quantified.
+        ("(? [Y,Z] : q(Y,Z)) => (? [Z] : q(c,Z))", {"Y": "c"}),
+    ],
+)
+def test_axioms_of_choice_are_accepted(text, witnesses):
+    axiom = parse_formula(text)
+    assert check_choice_axiom(axiom, {variable(v): parse_term(t) for v, t in witnesses.items()}) is None
+
+
+@pytest.mark.parametrize(
+    ("text", "witnesses", "reason"),
+    [
+        ("(? [Y] : p(X,Y)) => p(X,f(X))", {"Y": "f(X)"}, "choice_not_closed"),
+        ("! [X] : (p(X) & q(X))", {"X": "c"}, "not_a_choice_axiom"),
+        ("! [X] : (p(X) => q(X))", {"X": "c"}, "not_a_choice_axiom"),
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f))", {"Y": "f"}, "missing_dependency"),
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f(X)))", {"Y": "h(X)"}, "not_a_choice_axiom"),
+    ],
+)
+def test_formulas_that_are_not_axioms_of_choice(text, witnesses, reason):
+    failure = check_choice_axiom(parse_formula(text), {variable(v): parse_term(t) for v, t in witnesses.items()})
+    assert isinstance(failure, Failure) and failure.reason == reason
