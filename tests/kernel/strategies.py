@@ -295,7 +295,11 @@ def fitted_resolution(draw, clause: Clause, index: int, partner_index: int):
 def fitted_paramodulation(draw, clause: Clause, index: int, partner_index: int):
     """An equation clause and evidence rewriting a subterm of some literal of
     ``clause`` (premise ``index``); fitted most of the time, random else."""
-    literal_index = draw(st.integers(0, len(clause.literals) - 1))
+    with_arguments = [i for i, literal in enumerate(clause.literals) if literal.atom.arguments]
+    if with_arguments and mostly(draw):
+        literal_index = draw(st.sampled_from(with_arguments))
+    else:
+        literal_index = draw(st.integers(0, len(clause.literals) - 1))
     target_substitution = draw(substitutions)
     instance = target_substitution(clause.literals[literal_index].atom)
     positions = [position for position in term_positions(instance) if position]
@@ -312,7 +316,7 @@ def fitted_paramodulation(draw, clause: Clause, index: int, partner_index: int):
         equation_substitution = substitution_with(draw, bindings)
     else:
         position = tuple(draw(st.lists(st.integers(0, 3), max_size=3)))
-        equation = draw(atoms)
+        equation = draw(st.builds(eq, terms, terms)) if mostly(draw) else draw(atoms)
         equation_substitution = draw(substitutions)
     equation_clause, equation_index = insert_at(draw, draw(clauses(max_size=2)), Literal(mostly(draw), equation))
     evidence = Paramodulation(
