@@ -15,7 +15,7 @@ from collections.abc import Sequence
 from checker.freshness import build_symbol_table
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import FALSUM
-from checker.leaves import check_leaf
+from checker.leaves import check_leaf, same_content
 from checker.nested import check_with_nested
 from checker.outcomes import (
     ACCEPTED,
@@ -30,7 +30,7 @@ from checker.outcomes import (
 from checker.plan import make_plan
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.steps import StepContext, check_inference
-from formats.derivation import Document, Origin, UnreadableInput
+from formats.derivation import Document, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
 
@@ -130,7 +130,7 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
         else:
             results.append(check_step(step, [statements.get(name) for name in step.parents]))
         results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
-    results = _one_conjecture_at_a_time(plan, statements, results)
+    results = _one_conjecture_at_a_time(plan, statements, problem, results)
     results.extend(_whole_derivation(document))
     verdict = verdict_of(results)
     cautions = []
@@ -141,8 +141,9 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
     return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions))
 
 
-def _negations(plan, statements) -> list[tuple[str, str]]:
-    """(step, conjecture) for each step that negates a conjecture, in order."""
+def _negations(plan, statements, problem: Document | None = None) -> list[tuple[str, str]]:
+    """(step, conjecture) for each step that negates a conjecture, in order;
+    the conjecture by its name in the problem when there is one."""
     found = []
     for step in plan.steps:
         if step.statement is None or step.is_leaf:
@@ -150,15 +151,32 @@ def _negations(plan, statements) -> list[tuple[str, str]]:
         for name in step.parents:
             parent = statements.get(name)
             if parent is not None and parent.role == "conjecture":
-                found.append((step.name, name))
+                found.append((step.name, _problem_name(parent, problem)))
     return found
 
 
-def _one_conjecture_at_a_time(plan, statements, results: list[StepResult]) -> list[StepResult]:
+def _problem_name(conjecture: Statement, problem: Document | None) -> str:
+    """The name the problem gives the conjecture a leaf states: the one its
+    ``file(...)`` source cites, else one with the same content."""
+    if problem is None:
+        return conjecture.name
+    source = conjecture.source
+    cited = source.detail[1] if isinstance(source, Origin) and len(source.detail) > 1 and source.detail[1] else None
+    candidates = [s for s in problem.statements if s.role == "conjecture"]
+    for candidate in candidates:
+        if candidate.name == cited:
+            return candidate.name
+    for candidate in candidates:
+        if same_content(candidate.content, conjecture.content):
+            return candidate.name
+    return conjecture.name
+
+
+def _one_conjecture_at_a_time(plan, statements, problem: Document | None, results: list[StepResult]) -> list[StepResult]:
     """TPTP takes a problem's conjectures one at a time: a derivation that
     negates two of them refutes only their disjunction, so the step that
     negates the second one is failed."""
-    negations = _negations(plan, statements)
+    negations = _negations(plan, statements, problem)
     if len({conjecture for _, conjecture in negations}) < 2:
         return results
     first_step, first = negations[0]
@@ -181,7 +199,7 @@ def _conjecture_cautions(plan, statements, problem: Document) -> list[str]:
     conjectures = [s.name for s in problem.statements if s.role == "conjecture"]
     if not conjectures:
         return []
-    negated = {conjecture for _, conjecture in _negations(plan, statements)}
+    negated = {conjecture for _, conjecture in _negations(plan, statements, problem)}
     if not negated:
         return [
             "the refutation uses no negated conjecture: it shows the problem's axioms are inconsistent, "

@@ -73,3 +73,14 @@ def test_a_refutation_of_the_axioms_alone_is_flagged_as_inconsistency(tmp_path):
     report = run(tmp_path, INCONSISTENT_PROBLEM, AXIOMS_ONLY)
     assert report.verdict == ACCEPTED
     assert any("axioms are inconsistent" in c for c in report.cautions)
+
+
+def test_cautions_name_conjectures_as_the_problem_does(tmp_path):
+    # The derivation calls its copy of the conjecture `g1`; it cites the
+    # problem's `goal_locked`, which is what the report must name.
+    proof = ONE_CONJECTURE.replace("fof(goal_locked, conjecture", "fof(g1, conjecture").replace("[goal_locked]", "[g1]")
+    report = run(tmp_path, PROBLEM, proof)
+    assert report.verdict == ACCEPTED
+    assert report.cautions == (
+        "proves conjecture goal_locked only; the problem's other conjectures (goal_armed) are not addressed",
+    )
