@@ -47,7 +47,8 @@ def as_formula(content: Clause | Formula) -> Formula:
     return universal_closure(content)
 
 
-def _result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
+def step_result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
+    """A result for ``step`` under its rule name (a leaf's kind of origin)."""
     rule = step.inference.rule if step.inference is not None else _leaf_kind(step)
     return StepResult(step.name, outcome, rule, message, step.location, tuple(details))
 
@@ -67,25 +68,25 @@ def check_consequence(
     """premises ⊨ conclusion, by alpha-equivalence or a kernel-replayed
     refutation; if neither is found, a kernel-confirmed counter-model."""
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
-        return _result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
+        return step_result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
     chain = find_entailment(premises, conclusion, limits)
     if chain is not None:
         failure = check_entailment(premises, conclusion, chain)
         if failure is None:
-            return _result(
+            return step_result(
                 step, RECONSTRUCTED,
                 f"{what}: kernel replayed a refutation of premises and negated conclusion in "
                 f"{len(chain.steps)} inference{'s' if len(chain.steps) != 1 else ''}",
             )
     model = find_countermodel(list(premises), conclusion)
     if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
-        return _result(
+        return step_result(
             step,
             REFUTED,
             f"counter-model: the premises are true and the conclusion false (the step claims it {what})",
             render_countermodel(model, list(premises), conclusion).splitlines(),
         )
-    return _result(step, UNPROVEN, f"not shown within the search bounds (the step claims it {what})")
+    return step_result(step, UNPROVEN, f"not shown within the search bounds (the step claims it {what})")
 
 
 def check_introduction(
@@ -102,16 +103,16 @@ def check_introduction(
     new = new_symbols(claimed, raw_premises)
     not_fresh = table.freshness_failure(step.name, new)
     if not_fresh:
-        return _result(step, FAILED, not_fresh, ("reason: not_fresh",))
+        return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
     skolemized = list(premises)
     remaining = set(new)
     while remaining:
         proposal = next_witness(skolemized, claimed, remaining)
         if isinstance(proposal, Misfit):
-            return _result(step, FAILED, proposal.message, (f"reason: {proposal.reason}",))
+            return step_result(step, FAILED, proposal.message, (f"reason: {proposal.reason}",))
         replaced = skolemize(skolemized[proposal.premise], proposal.quantifier, {proposal.bound: proposal.witness})
         if isinstance(replaced, Failure):
-            return _result(step, FAILED, replaced.message, (f"reason: {replaced.reason}",))
+            return step_result(step, FAILED, replaced.message, (f"reason: {replaced.reason}",))
         skolemized[proposal.premise] = replaced
         remaining.discard((proposal.witness.symbol, proposal.witness.arity))
     introduced = ", ".join(describe_symbol(s) for s in sorted(new))
@@ -159,13 +160,13 @@ def check_choice_leaf(step: Step, axiom: Formula, quantifier: Formula, witnesses
     witnesses, and their symbols must be fresh."""
     failure = check_choice_axiom(axiom, witnesses)
     if failure is not None:
-        return _result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
+        return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
     symbols = {(w.symbol, w.arity) for w in witnesses.values()}
     not_fresh = table.freshness_failure(step.name, symbols)
     if not_fresh:
-        return _result(step, FAILED, not_fresh, ("reason: not_fresh",))
+        return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
     named = ", ".join(describe_symbol(s) for s in sorted(symbols))
-    return _result(step, RECONSTRUCTED, f"Skolem axiom (axiom of choice) for fresh {named}")
+    return step_result(step, RECONSTRUCTED, f"Skolem axiom (axiom of choice) for fresh {named}")
 
 
 def check_valid_leaf(step: Step, limits: SearchLimits) -> StepResult:
@@ -176,18 +177,18 @@ def check_valid_leaf(step: Step, limits: SearchLimits) -> StepResult:
     if isinstance(claimed, Clause):
         found = reconstruct([], claimed, rule_hint=_leaf_kind(step), limits=limits)
         if found.evidence is not None:
-            return _result(step, RECONSTRUCTED, "valid clause: its negation is refuted from no premises")
+            return step_result(step, RECONSTRUCTED, "valid clause: its negation is refuted from no premises")
     else:
         chain = find_entailment([], universal_closure(claimed), limits)
         if chain is not None and check_entailment([], universal_closure(claimed), chain) is None:
-            return _result(step, RECONSTRUCTED, "valid formula: its negation is refuted from no premises")
+            return step_result(step, RECONSTRUCTED, "valid formula: its negation is refuted from no premises")
     model = find_countermodel([], claimed)
     if model is not None and confirm_countermodel(model, [], claimed) is None:
-        return _result(
+        return step_result(
             step, REFUTED, "not valid: counter-model in which it is false",
             render_countermodel(model, [], claimed).splitlines(),
         )
-    return _result(step, UNPROVEN, "not shown valid within the search bounds")
+    return step_result(step, UNPROVEN, "not shown valid within the search bounds")
 
 
 def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
@@ -209,11 +210,11 @@ def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
         if shape is None:
             not_fresh = table.freshness_failure(step.name, {symbol})
             if not_fresh is None:
-                return _result(step, RECONSTRUCTED, f"defines fresh symbol `{describe_symbol(symbol)}`")
+                return step_result(step, RECONSTRUCTED, f"defines fresh symbol `{describe_symbol(symbol)}`")
             shape = Failure("not_fresh", not_fresh)
         if number == 0:
             failure = shape
-    return _result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
+    return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
 
 
 def check_negated_conjecture(
@@ -233,7 +234,7 @@ def check_negated_conjecture(
     if alpha_equivalent(negated, conclusion) or (
         isinstance(claimed, Formula) and alpha_equivalent(negation(conjecture), claimed)
     ):
-        return _result(step, RECONSTRUCTED, "the negation of the conjecture")
+        return step_result(step, RECONSTRUCTED, "the negation of the conjecture")
     new = new_symbols(claimed, [conjecture])
     if new and table.freshness_failure(step.name, new) is None:
         # Negated and Skolemized in one step.
@@ -243,12 +244,12 @@ def check_negated_conjecture(
         return forward
     backward = check_consequence(step, [conclusion], negated, limits, what="implies the negation of the conjecture")
     if backward.outcome == RECONSTRUCTED:
-        return _result(step, RECONSTRUCTED, "equivalent to the negation of the conjecture (both directions replayed)")
+        return step_result(step, RECONSTRUCTED, "equivalent to the negation of the conjecture (both directions replayed)")
     if backward.outcome == REFUTED:
-        return _result(
+        return step_result(
             step, FAILED,
             "not the negation of the conjecture: it follows from the negation but is weaker; "
             "counter-model in which the step holds and the negated conjecture does not",
             ("reason: not_the_negation", *backward.details),
         )
-    return _result(step, UNPROVEN, "not shown equivalent to the negation of the conjecture within the search bounds")
+    return step_result(step, UNPROVEN, "not shown equivalent to the negation of the conjecture within the search bounds")

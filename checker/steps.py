@@ -18,20 +18,14 @@ from checker.formula_steps import (
     check_consequence,
     check_introduction,
     check_negated_conjecture,
+    step_result,
 )
 from checker.freshness import SymbolTable, new_symbols
 from checker.kernel.clauses import Clause
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
-from checker.outcomes import (
-    CHECKED,
-    FAILED,
-    RECONSTRUCTED,
-    REFUTED,
-    UNPROVEN,
-    StepResult,
-)
+from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
@@ -48,11 +42,6 @@ class StepContext:
 
     limits: SearchLimits
     symbols: SymbolTable
-
-
-def _result(step: Step, outcome: str, message: str, details: Sequence[str] = ()) -> StepResult:
-    assert step.inference is not None
-    return StepResult(step.name, outcome, step.inference.rule, message, step.location, tuple(details))
 
 
 def closest_lines(candidate: Candidate | None) -> tuple[str, ...]:
@@ -76,8 +65,7 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
     """The outcome of an inference step whose parent statements are ``parents``."""
     inference = step.inference
     assert inference is not None and step.statement is not None
-    if any(parent is None for parent in parents):
-        return _result(step, UNPROVEN, "a parent is an intermediate step whose conclusion is not stated")
+    assert all(parent is not None for parent in parents), "the plan faults dangling parents; nested ones are stood in"
     claimed = step.statement.content
     premises = [parent.content for parent in parents]
     status = inference.status or "thm"
@@ -85,13 +73,13 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
     conjectures = [parent for parent in parents if parent.role == "conjecture"]
     if conjectures:
         if status != "cth" and step.statement.role != "negated_conjecture":
-            return _result(
+            return step_result(
                 step, FAILED,
                 f"uses the conjecture `{conjectures[0].name}` as a premise; only its negation may be used",
                 ("reason: conjecture_as_premise",),
             )
         if len(parents) != 1:
-            return _result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
+            return step_result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
                            ("reason: negation_parents",))
         return check_negated_conjecture(
             step, as_formula(conjectures[0].content), claimed, context.symbols, context.limits
@@ -99,11 +87,11 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
 
     if inference.evidence is not None:
         if not isinstance(claimed, Clause) or not all(isinstance(p, Clause) for p in premises):
-            return _result(step, FAILED, "explicit evidence is given for clauses, but this step or a parent is a formula")
+            return step_result(step, FAILED, "explicit evidence is given for clauses, but this step or a parent is a formula")
         failure = check_clause_step(premises, claimed, inference.evidence, inference.theta or IDENTITY)
         if failure is None:
-            return _result(step, CHECKED, "kernel replayed the stated evidence")
-        return _result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
+            return step_result(step, CHECKED, "kernel replayed the stated evidence")
+        return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
 
     introduces = status not in CONSEQUENCE_STATUSES and new_symbols(claimed, premises)
     if introduces:
@@ -112,18 +100,18 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
     if isinstance(claimed, Clause) and all(isinstance(p, Clause) for p in premises):
         found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
-            return _result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
+            return step_result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
         if found.wrong_bindings:
             # A certificate that misstates its unifier is wrong even when
             # another unifier works: its producer must see it.
-            return _result(
+            return step_result(
                 step, FAILED, found.closest.message, ("reason: wrong_bindings", *closest_lines(found.closest))
             )
         model = find_countermodel(premises, claimed)
         if model is not None and confirm_countermodel(model, premises, claimed) is None:
-            return _result(
+            return step_result(
                 step, REFUTED, "counter-model: the premises are true and the claimed clause false",
                 (*render_countermodel(model, premises, claimed).splitlines(), *closest_lines(found.closest)),
             )
-        return _result(step, UNPROVEN, "no evidence found within the search bounds", closest_lines(found.closest))
+        return step_result(step, UNPROVEN, "no evidence found within the search bounds", closest_lines(found.closest))
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)
