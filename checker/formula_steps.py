@@ -26,6 +26,7 @@ from checker.kernel.formulas import (
     alpha_equivalent,
     formula_of_clause,
     negation,
+    subformulas_with_polarity,
     universal_closure,
 )
 from checker.kernel.introductions import check_choice_axiom, check_definition, skolemize
@@ -217,6 +218,12 @@ def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
     return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
 
 
+def _predicates(content: Clause | Formula) -> set[tuple[str, int]]:
+    formula = as_formula(content)
+    atoms = (f.atom for f, _ in subformulas_with_polarity(formula) if f.atom is not None)
+    return {(atom.symbol, atom.arity) for atom in atoms}
+
+
 def check_negated_conjecture(
     step: Step,
     conjecture: Formula,
@@ -236,7 +243,7 @@ def check_negated_conjecture(
     ):
         return step_result(step, RECONSTRUCTED, "the negation of the conjecture")
     new = new_symbols(claimed, [conjecture])
-    if new and table.freshness_failure(step.name, new) is None:
+    if new and not new & _predicates(claimed) and table.freshness_failure(step.name, new) is None:
         # Negated and Skolemized in one step.
         return check_introduction(step, [negated], claimed, [conjecture], table, limits)
     forward = check_consequence(step, [negated], conclusion, limits, what="follows from the negation of the conjecture")

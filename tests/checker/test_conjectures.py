@@ -84,3 +84,40 @@ def test_cautions_name_conjectures_as_the_problem_does(tmp_path):
     assert report.cautions == (
         "proves conjecture goal_locked only; the problem's other conjectures (goal_armed) are not addressed",
     )
+
+
+GATE_PROBLEM = """
+fof(gate_rule, axiom, ~ (open(gate4) & armed(gate4))).
+fof(goal, conjecture, open(gate4) & armed(gate4)).
+"""
+
+
+def negation_step(formula: str) -> str:
+    return f"""
+fof(goal, conjecture, open(gate4) & armed(gate4), file('problem.p', goal)).
+fof(n1, negated_conjecture, {formula}, inference(negate, [status(cth)], [goal])).
+"""
+
+
+def test_a_negation_with_the_negation_pushed_in_is_equivalent(tmp_path):
+    # Common practice (De Morgan): ~ (A & B) is equivalent to ~ A | ~ B.
+    report = run(tmp_path, GATE_PROBLEM, negation_step("~ open(gate4) | ~ armed(gate4)"))
+    step = {s.name: s for s in report.steps}["n1"]
+    assert step.message.startswith("equivalent to the negation of the conjecture")
+
+
+def test_a_mere_consequence_of_the_negation_is_not_the_negation(tmp_path):
+    # ~ (A & B) entails ~ A | ~ B | C but not the other way round.
+    report = run(tmp_path, GATE_PROBLEM, negation_step("~ open(gate4) | ~ armed(gate4) | sealed(gate4)"))
+    step = {s.name: s for s in report.steps}["n1"]
+    assert step.outcome == FAILED
+    assert "reason: not_the_negation" in step.details
+    assert any(line.startswith("domain = ") for line in step.details)
+
+
+def test_a_negation_step_takes_the_conjecture_alone(tmp_path):
+    proof = negation_step("~ (open(gate4) & armed(gate4))").replace("[goal])", "[goal, gate_rule])")
+    proof += "fof(gate_rule, axiom, ~ (open(gate4) & armed(gate4)), file('problem.p', gate_rule)).\n"
+    report = run(tmp_path, GATE_PROBLEM, proof)
+    step = {s.name: s for s in report.steps}["n1"]
+    assert step.outcome == FAILED and "reason: negation_parents" in step.details
