@@ -128,7 +128,8 @@ def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits
     definition, an axiom of choice (a Skolem axiom), or a statement valid in
     itself (a tautology, an equality axiom)."""
     content = step.statement.content
-    if origin.detail[:1] == ("definition",):
+    kind = origin.detail[0] if origin.detail else ""
+    if kind == "definition" or kind.endswith("_definition"):
         return check_definition_leaf(step, table)
     if isinstance(content, Formula):
         choice = _choice_parts(universal_closure(content))

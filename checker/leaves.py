@@ -29,10 +29,6 @@ from checker.search.reconstruct import SearchLimits
 from checker.search.subsumption import find_theta
 from formats.derivation import Document, Origin, Statement
 
-AXIOM_ROLES = frozenset(
-    {"axiom", "hypothesis", "definition", "assumption", "lemma", "theorem", "corollary", "plain", "unknown"}
-)
-CONJECTURE_ROLES = frozenset({"conjecture", "negated_conjecture"})
 
 
 def same_content(problem_content: Clause | Formula, leaf_content: Clause | Formula) -> bool:
@@ -72,7 +68,7 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
             and isinstance(statement.content, Clause)
             and _clause_form_of(candidate.content, statement.content, limits)
         ):
-            if candidate.role in CONJECTURE_ROLES and statement.role not in CONJECTURE_ROLES:
+            if candidate.role == "conjecture" and statement.role != "conjecture":
                 return StepResult(
                     step.name, FAILED, "leaf",
                     f"not in the problem as an axiom: it states the problem's {candidate.role} `{candidate.name}`",

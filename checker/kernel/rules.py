@@ -147,6 +147,14 @@ def instantiate(premises: Sequence[Clause], evidence: Instantiation) -> Clause |
     return premise.instance(evidence.substitution)
 
 
+def _pair(evidence: Resolution, left: Literal, right: Literal) -> str:
+    """The two resolved literals as a failure names them (built only on failure)."""
+    return (
+        f"left literal {evidence.left_literal} {quote(left)} and "
+        f"right literal {evidence.right_literal} {quote(right)}"
+    )
+
+
 def resolve(premises: Sequence[Clause], evidence: Resolution) -> Clause | Failure:
     left = _premise(premises, evidence.left, "left")
     if isinstance(left, Failure):
@@ -160,19 +168,17 @@ def resolve(premises: Sequence[Clause], evidence: Resolution) -> Clause | Failur
     right_literal = _literal(right, evidence.right_literal, "right")
     if isinstance(right_literal, Failure):
         return right_literal
-    literals = (
-        f"left literal {evidence.left_literal} {quote(left_literal)} and "
-        f"right literal {evidence.right_literal} {quote(right_literal)}"
-    )
     if left_literal.positive == right_literal.positive:
         sign = "positive" if left_literal.positive else "negative"
-        return Failure("same_sign", f"literals not complementary: {literals} are both {sign}")
+        return Failure(
+            "same_sign", f"literals not complementary: {_pair(evidence, left_literal, right_literal)} are both {sign}"
+        )
     a = left_literal.instance(evidence.left_substitution)
     b = right_literal.instance(evidence.right_substitution)
     if not _atoms_match(a.atom, b.atom):
         return _clash(
             "atoms_differ",
-            f"literals not complementary: {literals} after substitution",
+            f"literals not complementary: {_pair(evidence, left_literal, right_literal)} after substitution",
             a.atom,
             _facing(a.atom, b.atom),
             "the unifier does not make the atoms equal",

@@ -108,7 +108,8 @@ def test_clause_equality_ignores_order_duplicates_and_orientation(clause, data):
 @given(left=literals, right=literals)
 def test_literals_are_equal_exactly_when_the_same_up_to_equation_orientation(left, right):
     same = left.positive == right.positive and (
-        left.atom is right.atom or (is_equality(left.atom) and left.atom.arguments == right.atom.arguments[::-1])
+        left.atom is right.atom
+        or (is_equality(left.atom) and is_equality(right.atom) and left.atom.arguments == right.atom.arguments[::-1])
     )
     assert (left == right) == same
     if same:
