@@ -1,7 +1,7 @@
 """Whole-certificate checking speed: steps per second, seconds per MB, and
 peak memory, for a native certificate (explicit evidence, no search) and
 the same derivation in TPTP (evidence reconstructed by search), at 1x and
-10x size.  An invented logistics scenario: a parcel hops depot to depot.
+10x size, in one process and in two (--jobs 2).  An invented logistics scenario: a parcel hops depot to depot.
 
 Run: python3 bench/bench_check.py [base_steps]
 """
@@ -37,6 +37,34 @@ def tptp_proof(hops: int) -> str:
     return "\n".join(lines) + "\n"
 
 
+def formula_problem_text(hops: int) -> str:
+    lines = [f"fof(route_{i}, axiom, ! [P] : (at(P, depot{i}) => at(P, depot{i + 1})))." for i in range(hops)]
+    lines.append("fof(start, axiom, at(parcel7, depot0)).")
+    lines.append(f"fof(arrives, conjecture, at(parcel7, depot{hops})).")
+    return "\n".join(lines) + "\n"
+
+
+def formula_proof(hops: int) -> str:
+    """The same journey from fof axioms: negated conjecture, one clause-form
+    step per axiom (each an entailment the search must show), resolutions."""
+    lines = [
+        f"fof(route_{i}, axiom, ! [P] : (at(P, depot{i}) => at(P, depot{i + 1})), file('problem_fof.p', route_{i}))."
+        for i in range(hops)
+    ]
+    lines.append("fof(start, axiom, at(parcel7, depot0), file('problem_fof.p', start)).")
+    lines.append(f"fof(arrives, conjecture, at(parcel7, depot{hops}), file('problem_fof.p', arrives)).")
+    lines.append(f"fof(negated, negated_conjecture, ~ at(parcel7, depot{hops}), inference(negate, [status(cth)], [arrives])).")
+    lines.append(f"cnf(never_arrives, plain, ~at(parcel7, depot{hops}), inference(clausify, [status(thm)], [negated])).")
+    lines.append("cnf(start_clause, plain, at(parcel7, depot0), inference(clausify, [status(thm)], [start])).")
+    previous = "start_clause"
+    for i in range(hops):
+        lines.append(f"cnf(hop_{i}, plain, ~at(P, depot{i}) | at(P, depot{i + 1}), inference(clausify, [status(thm)], [route_{i}])).")
+        lines.append(f"cnf(reached_{i + 1}, plain, at(parcel7, depot{i + 1}), inference(resolve, [status(thm)], [hop_{i}, {previous}])).")
+        previous = f"reached_{i + 1}"
+    lines.append(f"cnf(contradiction, plain, $false, inference(resolve, [status(thm)], [{previous}, never_arrives])).")
+    return "\n".join(lines) + "\n"
+
+
 def native_proof(hops: int) -> str:
     records = [{"assay_certificate": 1, "problem": "problem.p"}]
 
@@ -65,13 +93,13 @@ def native_proof(hops: int) -> str:
     return "\n".join(json.dumps(record) for record in records) + "\n"
 
 
-def measure(directory: str, name: str, text: str) -> None:
+def measure(directory: str, name: str, text: str, jobs: int = 1, problem_name: str = "problem.p") -> None:
     path = os.path.join(directory, name)
     with open(path, "w") as out:
         out.write(text)
-    problem = os.path.join(directory, "problem.p")
+    problem = os.path.join(directory, problem_name)
     started = time.perf_counter()
-    report = check(path, problem)
+    report = check(path, problem, jobs=jobs)
     elapsed = time.perf_counter() - started
     # Memory in a second run: tracing allocations slows the run it traces.
     tracemalloc.start()
@@ -81,7 +109,7 @@ def measure(directory: str, name: str, text: str) -> None:
     steps = len(report.steps)
     megabytes = len(text.encode()) / 1e6
     print(
-        f"{name:>12}  {report.verdict:>9}  {steps:6d} steps  {elapsed:7.2f} s  "
+        f"{name:>12} jobs={jobs}  {report.verdict:>9}  {steps:6d} steps  {elapsed:7.2f} s  "
         f"{steps / elapsed:8.0f} steps/s  {elapsed / megabytes:7.2f} s/MB  peak {peak / 1e6:7.1f} MB"
     )
 
@@ -93,9 +121,13 @@ def main() -> None:
         with tempfile.TemporaryDirectory() as directory:
             with open(os.path.join(directory, "problem.p"), "w") as out:
                 out.write(problem_text(hops))
+            with open(os.path.join(directory, "problem_fof.p"), "w") as out:
+                out.write(formula_problem_text(hops))
             print(f"{hops} hops ({factor}x):")
-            measure(directory, "proof.jsonl", native_proof(hops))
-            measure(directory, "proof.p", tptp_proof(hops))
+            for jobs in (1, 2):
+                measure(directory, "proof.jsonl", native_proof(hops), jobs)
+                measure(directory, "proof.p", tptp_proof(hops), jobs)
+                measure(directory, "proof_fof.p", formula_proof(hops), jobs, "problem_fof.p")
 
 
 if __name__ == "__main__":

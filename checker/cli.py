@@ -71,14 +71,16 @@ def main() -> None:
 @click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
               help="Raise or lower one bound of the per-step evidence search (counts, never time): "
               + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")
+@click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
+              help="Check steps in this many processes.")
 @click.option("--record", "record_path", type=click.Path(dir_okay=False, writable=True),
               help="Also write a check record (JSON with file hashes and scope statement) for a safety case.")
-def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limits, record_path) -> None:
+def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limits, jobs, record_path) -> None:
     """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
     limits = _limits(search_limits)
-    reports: list[Report] = [check(path, problem, include_dirs, limits) for path in certificates]
+    reports: list[Report] = [check(path, problem, include_dirs, limits, jobs) for path in certificates]
     if record_path:
         try:
             with open(record_path, "w", encoding="utf-8") as out:

@@ -27,6 +27,7 @@ from checker.outcomes import (
     StepResult,
     verdict_of,
 )
+from checker.parallel import map_in_processes
 from checker.plan import make_plan
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.steps import StepContext, check_inference
@@ -54,10 +55,12 @@ def check(
     problem: str | None = None,
     include_dirs: Sequence[str] = (),
     limits: SearchLimits = DEFAULT_LIMITS,
+    jobs: int = 1,
 ) -> Report:
-    """Check the certificate at ``path``, against the problem file if given."""
+    """Check the certificate at ``path``, against the problem file if given,
+    spreading the steps over ``jobs`` processes."""
     try:
-        return _check(path, problem, tuple(include_dirs), limits)
+        return _check(path, problem, tuple(include_dirs), limits, jobs)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
         if error.excerpt:
@@ -102,7 +105,9 @@ def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
     return include_dirs + ((from_environment,) if from_environment else ())
 
 
-def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], limits: SearchLimits) -> Report:
+def _check(
+    path: str, problem_path: str | None, include_dirs: tuple[str, ...], limits: SearchLimits, jobs: int
+) -> Report:
     include_dirs = _include_dirs(include_dirs)
     document = read_document(path, include_dirs)
     problem_path = problem_path or discover_problem(path, document, include_dirs)
@@ -110,26 +115,26 @@ def _check(path: str, problem_path: str | None, include_dirs: tuple[str, ...], l
     plan = make_plan(document)
     context = StepContext(limits, build_symbol_table(plan.steps, problem))
     statements = {statement.name: statement for statement in document.statements}
-    results: list[StepResult] = []
     nested = _nested_by_outer(plan)
 
     def check_step(step, parents):
         return check_inference(step, parents, context)
 
-    for step in plan.steps:
-        if step.statement is None:
-            continue  # a nested record: checked with the step that states it
+    def results_for(step) -> list[StepResult]:
+        """The results a stated step contributes: its nested records' and
+        its own (or its structural fault), then any duplicate of its name."""
         inner = nested.get(step.name, [])
-        faulted = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
-        if faulted:
-            results.extend(faulted)
-        elif inner:
-            results.extend(check_with_nested(step, inner, statements, check_step))
-        elif step.is_leaf:
-            results.append(check_leaf(step, problem, limits, context.symbols))
-        else:
-            results.append(check_step(step, [statements.get(name) for name in step.parents]))
-        results.extend(duplicate for duplicate in plan.duplicates if duplicate.name == step.name)
+        found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
+        if not found and inner:
+            found = check_with_nested(step, inner, statements, check_step)
+        elif not found and step.is_leaf:
+            found = [check_leaf(step, problem, limits, context.symbols)]
+        elif not found:
+            found = [check_step(step, [statements.get(name) for name in step.parents])]
+        return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
+
+    stated = [step for step in plan.steps if step.statement is not None]
+    results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]
     results = _one_conjecture_at_a_time(plan, statements, problem, results)
     results.extend(_whole_derivation(document))
     verdict = verdict_of(results)
