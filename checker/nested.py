@@ -81,6 +81,11 @@ def check_with_nested(
 ) -> list[StepResult]:
     """Results for the nested steps (in order) and then the outer step."""
     assert outer.statement is not None
+    named_parents = {name for step in nested for name in step.parents if name in statements}
+    if any(statements[name].role == "conjecture" for name in named_parents):
+        # Only the negation of a conjecture may be used, and that check needs
+        # the conjecture as a direct parent: check the step as a whole.
+        return _coarse(outer, nested, statements, check_step, {})
     options: dict[str, list[Option]] = {}
     for step in nested:  # parents first, as planned
         gathered: dict[Clause, Option] = {}

@@ -73,6 +73,8 @@ def render_text(report: Report, verbose: bool = False) -> str:
         return "\n".join(lines)
     if report.counts:
         lines.append("  " + ", ".join(f"{count} {outcome}" for outcome, count in report.counts.items()))
+    if report.problem:
+        lines.append(f"  problem: {report.problem}")
     for caution in report.cautions:
         lines.append(f"  caution: {caution}")
     assumed = [step.name for step in report.steps if step.outcome == ASSUMED]

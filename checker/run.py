@@ -114,7 +114,9 @@ def _check(
     problem = read_tptp(problem_path, include_dirs) if problem_path else None
     plan = make_plan(document)
     context = StepContext(limits, build_symbol_table(plan.steps, problem))
-    statements = {statement.name: statement for statement in document.statements}
+    statements: dict[str, Statement] = {}
+    for statement in document.statements:
+        statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
     nested = _nested_by_outer(plan)
 
     def check_step(step, parents):

@@ -85,3 +85,43 @@ def test_without_a_problem_leaves_are_assumed_and_the_report_says_so(tmp_path):
     assert report.verdict == ACCEPTED
     assert [s.name for s in report.steps if s.outcome == ASSUMED] == ["a1", "a2"]
     assert NO_PROBLEM_CAUTION in report.cautions
+
+
+def test_a_step_uses_the_first_statement_of_a_duplicated_name(tmp_path):
+    # The plan keeps the first statement of a name (the second is a fault);
+    # steps must then be checked against that same first statement.
+    report = run(
+        tmp_path,
+        """
+        cnf(l1, axiom, berth(tanker3, dock2), file('problem.p', tanker_berth)).
+        cnf(l1, axiom, moored(tanker3), file('problem.p', tanker_berth)).
+        cnf(c1, plain, berth(tanker3, dock2) | moored(barge1), inference(weaken, [status(thm)], [l1])).
+        """,
+    )
+    steps = {}
+    for step in report.steps:
+        steps.setdefault(step.name, []).append(step)
+    assert [s.outcome for s in steps["l1"]] == [CHECKED, FAILED]
+    assert "duplicate name" in steps["l1"][1].message
+    assert steps["c1"][0].outcome == RECONSTRUCTED
+
+
+def test_a_conjecture_inside_a_nested_record_is_not_an_axiom(tmp_path):
+    # Refuting the axioms together with the conjecture itself shows the
+    # conjecture false, not true: a nested record must not hide that use.
+    problem = """
+    cnf(goal, conjecture, berth(tanker3, dock2)).
+    cnf(dock_rule, axiom, ~ berth(S, D) | moored(S)).
+    cnf(adrift, axiom, ~ moored(tanker3)).
+    """
+    proof = """
+    cnf(goal, conjecture, berth(tanker3, dock2), file('problem.p', goal)).
+    cnf(dock_rule, axiom, ~ berth(S, D) | moored(S), file('problem.p', dock_rule)).
+    cnf(adrift, axiom, ~ moored(tanker3), file('problem.p', adrift)).
+    cnf(c1, plain, $false,
+        inference(resolve, [status(thm)], [inference(resolve, [status(thm)], [goal, dock_rule]), adrift])).
+    """
+    report = run(tmp_path, proof, problem)
+    assert report.verdict == "rejected"
+    failure = report.first_failure
+    assert failure.name == "c1" and "reason: conjecture_as_premise" in failure.details
