@@ -113,7 +113,8 @@ def _check(
     problem_path = problem_path or discover_problem(path, document, include_dirs)
     problem = read_tptp(problem_path, include_dirs) if problem_path else None
     plan = make_plan(document)
-    context = StepContext(limits, build_symbol_table(plan.steps, problem))
+    conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
+    context = StepContext(limits, build_symbol_table(plan.steps, problem), conjectures)
     statements: dict[str, Statement] = {}
     for statement in document.statements:
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step

@@ -22,9 +22,11 @@ from checker.formula_steps import (
 )
 from checker.freshness import SymbolTable, new_symbols
 from checker.kernel.clauses import Clause
+from checker.kernel.formulas import Formula
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
+from checker.leaves import same_content
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.models import find_countermodel
@@ -42,6 +44,8 @@ class StepContext:
 
     limits: SearchLimits
     symbols: SymbolTable
+    conjectures: tuple[Clause | Formula, ...] | None = None
+    """the problem's conjectures, or None when there is no problem"""
 
 
 def closest_lines(candidate: Candidate | None) -> tuple[str, ...]:
@@ -81,6 +85,13 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         if len(parents) != 1:
             return step_result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
                            ("reason: negation_parents",))
+        if context.conjectures is not None and not any(
+            same_content(conjecture, conjectures[0].content) for conjecture in context.conjectures
+        ):
+            return step_result(
+                step, FAILED, f"negates `{conjectures[0].name}`, which is not a conjecture of the problem",
+                ("reason: not_a_problem_conjecture",),
+            )
         return check_negated_conjecture(
             step, as_formula(conjectures[0].content), claimed, context.symbols, context.limits
         )
