@@ -27,7 +27,7 @@ from checker.plan import Step
 from checker.search.entailment import find_entailment
 from checker.search.reconstruct import SearchLimits
 from checker.search.subsumption import find_theta
-from formats.derivation import Document, Origin, Statement
+from formats.derivation import Document, Inference, Origin, Statement
 
 
 
@@ -84,5 +84,8 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
 
 
 def _by_name_first(statements: Sequence[Statement], name: str) -> list[Statement]:
-    named = [s for s in statements if s.name == name]
-    return named + [s for s in statements if s.name != name]
+    """The problem's inputs, the cited one first.  A statement derived by an
+    inference is no input of a problem, whatever file it stands in."""
+    inputs = [s for s in statements if not isinstance(s.source, Inference)]
+    named = [s for s in inputs if s.name == name]
+    return named + [s for s in inputs if s.name != name]

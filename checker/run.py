@@ -31,7 +31,7 @@ from checker.parallel import map_in_processes
 from checker.plan import make_plan
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.steps import StepContext, check_inference
-from formats.derivation import Document, Origin, Statement, UnreadableInput
+from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
 
@@ -111,6 +111,8 @@ def _check(
     include_dirs = _include_dirs(include_dirs)
     document = read_document(path, include_dirs)
     problem_path = problem_path or discover_problem(path, document, include_dirs)
+    if problem_path and os.path.exists(problem_path) and os.path.samefile(problem_path, path):
+        raise UnreadableInput("the problem given is the certificate itself", Location(problem_path, 1, 1))
     problem = read_tptp(problem_path, include_dirs) if problem_path else None
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")

@@ -125,3 +125,19 @@ def test_a_conjecture_inside_a_nested_record_is_not_an_axiom(tmp_path):
     assert report.verdict == "rejected"
     failure = report.first_failure
     assert failure.name == "c1" and "reason: conjecture_as_premise" in failure.details
+
+
+def test_derived_statements_of_a_problem_file_are_not_its_axioms(tmp_path):
+    # A file handed over as the problem may hold inferences (say, another
+    # derivation); only its input statements count as the problem's.
+    problem = PROBLEM + "cnf(made_up, plain, moored(barge1), inference(guess, [status(thm)], [dock_rule])).\n"
+    report = run(tmp_path, "cnf(l1, axiom, moored(barge1), file('problem.p', made_up)).\n", problem)
+    assert outcomes(report)["l1"].outcome == FAILED
+    assert "not in the problem" in outcomes(report)["l1"].message
+
+
+def test_the_certificate_cannot_be_its_own_problem(tmp_path):
+    (tmp_path / "proof.p").write_text("cnf(l1, axiom, $false).\n")
+    report = check(str(tmp_path / "proof.p"), str(tmp_path / "proof.p"))
+    assert report.verdict == "unreadable"
+    assert "the problem given is the certificate itself" in report.error
