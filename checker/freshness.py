@@ -93,13 +93,19 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
     for s in steps:
         for parent in s.parents:
             children.setdefault(parent, []).append(s.name)
+    # What each step inherits from its parents: a stated step hands on its
+    # own symbols, an unstated (nested) one what it inherited.  Steps come
+    # parents first.
+    inherited_by: dict[str, set[Symbol]] = {}
+    handed_on: dict[str, set[Symbol]] = {}
+    for s in steps:
+        inherited_by[s.name] = set().union(*(handed_on.get(p, set()) for p in s.parents))
+        handed_on[s.name] = step_symbols[s.name] if s.statement is not None else inherited_by[s.name]
     introducers: dict[Symbol, list[str]] = {}
     for s in steps:
         if s.statement is None:
             continue
-        inherited: set[Symbol] = set()
-        for parent in s.parents:
-            inherited |= step_symbols.get(parent, set())
+        inherited = inherited_by[s.name]
         if s.is_leaf and not _is_introduction(s):
             continue
         for symbol in new_symbols(s.statement.content, ()) - inherited:

@@ -80,3 +80,21 @@ def test_deeply_chained_derivation_plans_without_recursion():
     plan = plan_of("\n".join(reversed(lines)))
     assert [step.name for step in plan.steps][:3] == ["s0", "s1", "s2"]
     assert len(plan.steps) == 5000
+
+
+def test_symbols_reach_a_step_through_its_nested_records():
+    # c4 inherits `sk` through its nested record, so c4 introduces nothing;
+    # only s1 introduces `sk`.
+    from checker.freshness import build_symbol_table
+
+    plan = plan_of(
+        """
+        fof(a1, axiom, ? [X] : p(X)).
+        fof(s1, plain, p(sk), inference(skolemize, [status(esa)], [a1])).
+        cnf(c2, axiom, ~ p(X) | q(X)).
+        cnf(c3, axiom, ~ q(X) | r(X)).
+        cnf(c4, plain, r(sk), inference(r, [status(thm)], [inference(s, [status(thm)], [s1, c2]), c3])).
+        """
+    )
+    table = build_symbol_table(plan.steps, None)
+    assert table.introducers[("sk", 0)] == ["s1"]
