@@ -49,9 +49,25 @@ def _clause_form_of(problem_content: Formula, leaf_content: Clause, limits: Sear
     return chain is not None and check_entailment([premise], conclusion, chain) is None
 
 
+def equivalent_content(problem_content: Clause | Formula, leaf_content: Clause | Formula) -> bool:
+    """Whether two statements say the same: clauses subsume each other
+    (kernel-checked both ways), anything else alpha-equivalent closures.
+    A conjecture must be stated exactly so: a weaker conjecture has a
+    stronger negation."""
+    if isinstance(problem_content, Clause) and isinstance(leaf_content, Clause):
+        return same_content(problem_content, leaf_content) and same_content(leaf_content, problem_content)
+    return alpha_equivalent(as_formula(problem_content), as_formula(leaf_content))
+
+
+def _fail(step: Step, message: str, reason: str) -> StepResult:
+    return StepResult(step.name, FAILED, "leaf", message, step.location, (f"reason: {reason}",))
+
+
 def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table: SymbolTable) -> StepResult:
     """The outcome of a leaf: which problem statement it is, or why it is
-    none; introduced and theory leaves need no problem."""
+    none; introduced and theory leaves need no problem.  A leaf with the
+    role conjecture must state a conjecture of the problem exactly; any
+    other leaf may weaken an axiom but never state a conjecture."""
     statement = step.statement
     assert statement is not None
     origin = statement.source if isinstance(statement.source, Origin) else Origin("unknown")
@@ -61,18 +77,24 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
         return StepResult(step.name, ASSUMED, "leaf", "taken as given: no problem to check it against", step.location)
     cited = origin.detail[1] if origin.kind == "file" and len(origin.detail) > 1 and origin.detail[1] else statement.name
     candidates = _by_name_first(problem.statements, cited)
+    content = statement.content
+    if statement.role == "conjecture":
+        for candidate in candidates:
+            if candidate.role == "conjecture" and equivalent_content(candidate.content, content):
+                how = "" if candidate.name == cited else f" (cited as `{cited}`)"
+                return StepResult(step.name, CHECKED, "leaf", f"conjecture `{candidate.name}` of the problem{how}", step.location)
+        return _fail(step, f"not a conjecture of the problem: `{content}`", "not_a_problem_conjecture")
     for candidate in candidates:
-        if same_content(candidate.content, statement.content) or (
+        if same_content(candidate.content, content) or (
             candidate.name == cited
             and isinstance(candidate.content, Formula)
-            and isinstance(statement.content, Clause)
-            and _clause_form_of(candidate.content, statement.content, limits)
+            and isinstance(content, Clause)
+            and _clause_form_of(candidate.content, content, limits)
         ):
-            if candidate.role == "conjecture" and statement.role != "conjecture":
-                return StepResult(
-                    step.name, FAILED, "leaf",
-                    f"not in the problem as an axiom: it states the problem's {candidate.role} `{candidate.name}`",
-                    step.location,
+            if candidate.role == "conjecture":
+                return _fail(
+                    step, f"not in the problem as an axiom: it states the problem's conjecture `{candidate.name}`",
+                    "conjecture_as_axiom",
                 )
             how = "" if candidate.name == cited else f" (cited as `{cited}`)"
             return StepResult(
@@ -80,7 +102,7 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
             )
     named = [c for c in problem.statements if c.name == cited]
     hint = f"; the problem's `{cited}` is `{named[0].content}`" if named else ""
-    return StepResult(step.name, FAILED, "leaf", f"not in the problem: `{statement.content}`{hint}", step.location)
+    return _fail(step, f"not in the problem: `{content}`{hint}", "not_in_problem")
 
 
 def _by_name_first(statements: Sequence[Statement], name: str) -> list[Statement]:

@@ -46,8 +46,9 @@ class Plan:
     duplicates: tuple[StepResult, ...]
 
 
-def _unfold(statement: Statement) -> list[Step]:
-    """The statement's step, preceded by steps for its nested records."""
+def _unfold(statement: Statement, taken: set[str]) -> list[Step]:
+    """The statement's step, preceded by steps for its nested records, named
+    ``outer/1``, ``outer/2`` ... but never as a written statement is."""
     if not isinstance(statement.source, Inference):
         return [Step(statement.name, statement, None, (), (), statement.location)]
     steps: list[Step] = []
@@ -56,6 +57,8 @@ def _unfold(statement: Statement) -> list[Step]:
     def name_nested() -> str:
         nonlocal counter
         counter += 1
+        while f"{statement.name}/{counter}" in taken:
+            counter += 1
         return f"{statement.name}/{counter}"
 
     # Iterative post-order over nested records: a nested record's step must
@@ -97,6 +100,7 @@ def _unfold(statement: Statement) -> list[Step]:
 
 def make_plan(document: Document) -> Plan:
     """Order the document's steps parents-first and collect structural faults."""
+    written = {statement.name for statement in document.statements}
     duplicates: list[StepResult] = []
     faults: dict[str, StepResult] = {}
     steps: list[Step] = []
@@ -114,7 +118,7 @@ def make_plan(document: Document) -> Plan:
             )
             continue
         defined[statement.name] = statement.location
-        steps.extend(_unfold(statement))
+        steps.extend(_unfold(statement, written))
 
     by_name = {step.name: step for step in steps}
     usable: list[Step] = []

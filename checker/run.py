@@ -15,7 +15,7 @@ from collections.abc import Sequence
 from checker.freshness import build_symbol_table
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import FALSUM
-from checker.leaves import check_leaf, same_content
+from checker.leaves import check_leaf, equivalent_content
 from checker.nested import check_with_nested
 from checker.outcomes import (
     ACCEPTED,
@@ -152,34 +152,34 @@ def _check(
 
 
 def _negations(plan, statements, problem: Document | None = None) -> list[tuple[str, str]]:
-    """(step, conjecture) for each step that negates a conjecture, in order;
-    the conjecture by its name in the problem when there is one."""
+    """(step, conjecture) for each stated step that uses a conjecture, in
+    order, looking through its nested records; the conjecture by the name
+    the problem gives the statement it equals, when there is a problem."""
     found = []
     for step in plan.steps:
-        if step.statement is None or step.is_leaf:
+        if step.is_leaf:
             continue
+        stated = step.name if step.statement is not None else step.name.rpartition("/")[0]
         for name in step.parents:
             parent = statements.get(name)
             if parent is not None and parent.role == "conjecture":
-                found.append((step.name, _problem_name(parent, problem)))
+                found.append((stated, _problem_name(parent, problem)))
     return found
 
 
 def _problem_name(conjecture: Statement, problem: Document | None) -> str:
-    """The name the problem gives the conjecture a leaf states: the one its
-    ``file(...)`` source cites, else one with the same content."""
+    """The problem's name for the conjecture a statement states (by content;
+    the cited name only breaks ties between identical conjectures)."""
     if problem is None:
         return conjecture.name
     source = conjecture.source
-    cited = source.detail[1] if isinstance(source, Origin) and len(source.detail) > 1 and source.detail[1] else None
-    candidates = [s for s in problem.statements if s.role == "conjecture"]
-    for candidate in candidates:
-        if candidate.name == cited:
-            return candidate.name
-    for candidate in candidates:
-        if same_content(candidate.content, conjecture.content):
-            return candidate.name
-    return conjecture.name
+    cited = source.detail[1] if isinstance(source, Origin) and len(source.detail) > 1 else None
+    equal = [
+        s.name for s in problem.statements if s.role == "conjecture" and equivalent_content(s.content, conjecture.content)
+    ]
+    if not equal:
+        return conjecture.name
+    return cited if cited in equal else equal[0]
 
 
 def _one_conjecture_at_a_time(plan, statements, problem: Document | None, results: list[StepResult]) -> list[StepResult]:
@@ -234,8 +234,11 @@ def _nested_by_outer(plan) -> dict[str, list]:
 
 
 def _whole_derivation(document: Document) -> list[StepResult]:
-    """The derivation must reach the empty clause (a refutation)."""
+    """The derivation must reach the empty clause (a refutation); a
+    conjecture of `$false` is something to show, not something reached."""
     for statement in document.statements:
+        if statement.role == "conjecture":
+            continue
         content = statement.content
         if (isinstance(content, Clause) and content.is_empty) or content is FALSUM:
             return []

@@ -26,7 +26,7 @@ from checker.kernel.formulas import Formula
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
-from checker.leaves import same_content
+from checker.leaves import equivalent_content
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.models import find_countermodel
@@ -86,7 +86,7 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
             return step_result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
                            ("reason: negation_parents",))
         if context.conjectures is not None and not any(
-            same_content(conjecture, conjectures[0].content) for conjecture in context.conjectures
+            equivalent_content(conjecture, conjectures[0].content) for conjecture in context.conjectures
         ):
             return step_result(
                 step, FAILED, f"negates `{conjectures[0].name}`, which is not a conjecture of the problem",
