@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import json
+import os
 import sys
 from dataclasses import fields, replace
 
@@ -64,7 +65,7 @@ def main() -> None:
 @main.command("check")
 @click.argument("certificates", nargs=-1, required=True, type=click.Path(dir_okay=False))
 @click.option("--problem", "problem", type=click.Path(dir_okay=False), help="The TPTP problem the derivation refutes.")
-@click.option("--include-dir", "include_dirs", multiple=True, type=click.Path(file_okay=False),
+@click.option("--include-dir", "include_dirs", multiple=True, type=click.Path(exists=True, file_okay=False),
               help="Where to look for include(...) files (also $TPTP).")
 @click.option("--report", "report_format", type=click.Choice(["text", "json"]), default="text", show_default=True)
 @click.option("--all-steps", is_flag=True, help="List every step in the text report, not only the first failure.")
@@ -80,17 +81,19 @@ def check_command(certificates, problem, include_dirs, report_format, all_steps,
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
     limits = _limits(search_limits)
+    if record_path and not os.path.isdir(os.path.dirname(os.path.abspath(record_path))):
+        raise click.BadParameter(f"no directory to write {record_path} in", param_hint="--record")
     reports: list[Report] = [check(path, problem, include_dirs, limits, jobs) for path in certificates]
-    if record_path:
-        try:
-            with open(record_path, "w", encoding="utf-8") as out:
-                json.dump(check_record(reports, limits), out, indent=2)
-        except OSError as error:
-            raise click.FileError(record_path, hint=error.strerror or str(error)) from None
     if report_format == "json":
         click.echo(render_json(reports))
     else:
         for report in reports:
             click.echo(render_text(report, verbose=all_steps))
         click.echo(SAFETY_NOTE)
+    if record_path:
+        try:
+            with open(record_path, "w", encoding="utf-8") as out:
+                json.dump(check_record(reports, limits), out, indent=2)
+        except OSError as error:
+            raise click.FileError(record_path, hint=error.strerror or str(error)) from None
     sys.exit(EXIT_CODES[worst([report.verdict for report in reports])])

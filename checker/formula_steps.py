@@ -84,10 +84,10 @@ def check_consequence(
         return step_result(
             step,
             REFUTED,
-            f"counter-model: the premises are true and the conclusion false (the step claims it {what})",
-            render_countermodel(model, list(premises), conclusion).splitlines(),
+            f"counter-model: the premises are true and the conclusion false (claimed: {what})",
+            ("reason: countermodel", *render_countermodel(model, list(premises), conclusion).splitlines()),
         )
-    return step_result(step, UNPROVEN, f"not shown within the search bounds (the step claims it {what})")
+    return step_result(step, UNPROVEN, f"not shown within the search bounds (claimed: {what})")
 
 
 def check_introduction(
@@ -119,7 +119,7 @@ def check_introduction(
     introduced = ", ".join(describe_symbol(s) for s in sorted(new))
     return check_consequence(
         step, skolemized, as_formula(claimed), limits,
-        what=f"Skolemization introducing {introduced}: follows from its premises so Skolemized",
+        what=f"Skolemization introducing {introduced}: follows from its Skolemized premises",
     )
 
 
@@ -188,7 +188,7 @@ def check_valid_leaf(step: Step, limits: SearchLimits) -> StepResult:
     if model is not None and confirm_countermodel(model, [], claimed) is None:
         return step_result(
             step, REFUTED, "not valid: counter-model in which it is false",
-            render_countermodel(model, [], claimed).splitlines(),
+            ("reason: countermodel", *render_countermodel(model, [], claimed).splitlines()),
         )
     return step_result(step, UNPROVEN, "not shown valid within the search bounds")
 

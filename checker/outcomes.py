@@ -67,6 +67,8 @@ class Report:
     problem: str | None = None
     error: str | None = None
     cautions: tuple[str, ...] = field(default=())
+    files: tuple[str, ...] = ()
+    """every file read: the certificate, its includes, the problem and its includes"""
 
     @property
     def exit_code(self) -> int:

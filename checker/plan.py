@@ -114,6 +114,7 @@ def make_plan(document: Document) -> Plan:
                     "structure",
                     f"duplicate name: `{statement.name}` is already defined at {defined[statement.name]}",
                     statement.location,
+                    ("reason: duplicate_name",),
                 )
             )
             continue
@@ -132,6 +133,7 @@ def make_plan(document: Document) -> Plan:
                     step.inference.rule if step.inference else "structure",
                     "parent not defined: " + ", ".join(f"`{name}`" for name in missing),
                     step.location,
+                    ("reason: dangling_parent",),
                 )
             )
         usable.append(step)
@@ -148,6 +150,7 @@ def make_plan(document: Document) -> Plan:
                 step.inference.rule if step.inference else "structure",
                 f"cycle: {what}: " + " -> ".join(cycle),
                 step.location,
+                ("reason: cycle",),
             )
         )
     return Plan(tuple(ordered) + tuple(stuck), faults, tuple(duplicates))

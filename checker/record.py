@@ -1,7 +1,8 @@
 """The check record: what to file with a safety case or a verification log.
 
 It ties the verdict to the exact bytes that were checked (SHA-256 of the
-certificate and the problem), the assay version and the search bounds, and
+certificate, the problem and every file either includes), the assay
+version and the search bounds, and
 it states plainly what a checked proof does and does not show.
 """
 
@@ -56,6 +57,7 @@ def check_record(reports: list[Report], limits: SearchLimits) -> dict:
                 "certificate_sha256": _sha256(report.path),
                 "problem": report.problem,
                 "problem_sha256": _sha256(report.problem),
+                "files_read": [{"path": read, "sha256": _sha256(read)} for read in dict.fromkeys(report.files)],
                 "report": report_json(report),
             }
             for report in reports

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import os
 import traceback
+from collections import Counter
 from collections.abc import Sequence
 
 from checker.freshness import build_symbol_table
@@ -43,8 +44,8 @@ NO_PROBLEM_CAUTION = (
 
 def read_document(path: str, include_dirs: Sequence[str] = ()) -> Document:
     """Read a native certificate (JSON Lines) or a TPTP file, by content."""
-    with open(path, encoding="utf-8") as handle:
-        start = handle.read(4096).lstrip()
+    with open(path, encoding="utf-8", errors="replace") as handle:  # the reader reports bad bytes
+        start = handle.read(4096).lstrip("\ufeff \t\r\n")
     if path.endswith(".jsonl") or start.startswith("{"):
         return read_native(path)
     return read_tptp(path, include_dirs)
@@ -79,25 +80,38 @@ def describe_internal_error(error: BaseException) -> str:
     return f"internal error in assay ({type(error).__name__}: {error}{where}); nothing was accepted; please report it"
 
 
-def discover_problem(path: str, document: Document, include_dirs: Sequence[str]) -> str | None:
-    """The problem a derivation names, when it can be found: the native
-    header's ``problem``, else the file cited by the leaves' ``file(...)``
-    sources, looked up next to the certificate and then in the include
-    directories."""
+def cited_problems(path: str, document: Document) -> list[str]:
+    """The problem files a certificate names: the native header's
+    ``problem``, or the files its leaves' ``file(...)`` sources cite, the
+    most cited first."""
     if document.format == "native":
-        cited = [read_native_header(path).problem]
-    else:
-        cited = [
-            statement.source.detail[0]
-            for statement in document.statements
-            if isinstance(statement.source, Origin) and statement.source.kind == "file" and statement.source.detail
-        ]
-    for name in dict.fromkeys(c for c in cited if c):
-        for directory in (os.path.dirname(os.path.abspath(path)), *include_dirs):
+        named = read_native_header(path).problem
+        return [named] if named else []
+    cited = Counter(
+        statement.source.detail[0]
+        for statement in document.statements
+        if isinstance(statement.source, Origin) and statement.source.kind == "file" and statement.source.detail
+    )
+    return [name for name, _ in cited.most_common() if name]
+
+
+def discover_problem(path: str, names: Sequence[str], include_dirs: Sequence[str]) -> str | None:
+    """The first named problem found next to the certificate or in an
+    include directory (never the certificate itself)."""
+    for name in names:
+        for directory in (os.path.dirname(path), *include_dirs):
             candidate = os.path.join(directory, name)
             if os.path.isfile(candidate) and os.path.abspath(candidate) != os.path.abspath(path):
                 return candidate
     return None
+
+
+def _statements_or_unreadable(document: Document) -> Document:
+    """A file with no statement at all is not a derivation or a problem."""
+    if not document.statements:
+        skipped = f" (skipped: {document.notices[0].message})" if document.notices else ""
+        raise UnreadableInput(f"no statements found{skipped}", Location(document.path, 1, 1))
+    return document
 
 
 def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
@@ -109,11 +123,18 @@ def _check(
     path: str, problem_path: str | None, include_dirs: tuple[str, ...], limits: SearchLimits, jobs: int
 ) -> Report:
     include_dirs = _include_dirs(include_dirs)
-    document = read_document(path, include_dirs)
-    problem_path = problem_path or discover_problem(path, document, include_dirs)
+    document = _statements_or_unreadable(read_document(path, include_dirs))
+    cited = [] if problem_path else cited_problems(path, document)
+    problem_path = problem_path or discover_problem(path, cited, include_dirs)
+    if not problem_path and cited and document.format == "native":
+        raise UnreadableInput(
+            f"the problem the header names, {cited[0]}, was not found next to the certificate"
+            + (" or in the include directories" if include_dirs else ""),
+            Location(path, 1, 1),
+        )
     if problem_path and os.path.exists(problem_path) and os.path.samefile(problem_path, path):
         raise UnreadableInput("the problem given is the certificate itself", Location(problem_path, 1, 1))
-    problem = read_tptp(problem_path, include_dirs) if problem_path else None
+    problem = _statements_or_unreadable(read_tptp(problem_path, include_dirs)) if problem_path else None
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
     context = StepContext(limits, build_symbol_table(plan.steps, problem), conjectures)
@@ -146,9 +167,15 @@ def _check(
     cautions = []
     if problem is None and verdict == ACCEPTED:
         cautions.append(NO_PROBLEM_CAUTION)
+        if cited:
+            cautions.append(f"the leaves cite {', '.join(cited)}, which was not found next to the derivation"
+                            + (" or in the include directories" if include_dirs else ""))
     if problem is not None and verdict == ACCEPTED:
         cautions.extend(_conjecture_cautions(plan, statements, problem))
-    return Report(path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions))
+    return Report(
+        path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions),
+        files=document.files + (problem.files if problem else ()),
+    )
 
 
 def _negations(plan, statements, problem: Document | None = None) -> list[tuple[str, str]]:
@@ -248,7 +275,8 @@ def _whole_derivation(document: Document) -> list[StepResult]:
             FAILED,
             "refutation",
             "the derivation never reaches the empty clause (`$false`)",
-            None,
+            Location(document.path, 1, 1),
+            ("reason: no_refutation",),
         )
     ]
 

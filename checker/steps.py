@@ -122,7 +122,10 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         if model is not None and confirm_countermodel(model, premises, claimed) is None:
             return step_result(
                 step, REFUTED, "counter-model: the premises are true and the claimed clause false",
-                (*render_countermodel(model, premises, claimed).splitlines(), *closest_lines(found.closest)),
+                ("reason: countermodel", *render_countermodel(model, premises, claimed).splitlines(),
+                 *closest_lines(found.closest)),
             )
-        return step_result(step, UNPROVEN, "no evidence found within the search bounds", closest_lines(found.closest))
+        return step_result(
+            step, UNPROVEN, "no evidence found within the search bounds (see --search-limit)", closest_lines(found.closest)
+        )
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)

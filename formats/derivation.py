@@ -102,3 +102,5 @@ class Document:
     statements: tuple[Statement, ...]
     notices: tuple[Notice, ...] = field(default=())
     format: str = "tptp"
+    files: tuple[str, ...] = ()
+    """every file read for it: the file itself, then each included file"""

@@ -420,14 +420,14 @@ def parse_native(text: str, path: str = "<string>") -> Document:
     """The statements of a native certificate given as text."""
     _, records = _header_and_records(text, path)
     statements = tuple(_statement(record, _decode(record)) for record in records)
-    return Document(path, statements, format=FORMAT)
+    return Document(path, statements, format=FORMAT, files=(path,))
 
 
 def _read_text(path: str) -> str:
     with open(path, "rb") as handle:
         data = handle.read()
     try:
-        return data.decode("utf-8")
+        return data.decode("utf-8-sig")  # a byte-order mark is no text
     except UnicodeDecodeError as error:
         line = data.count(b"\n", 0, error.start) + 1
         column = error.start - (data.rfind(b"\n", 0, error.start) + 1) + 1

@@ -550,7 +550,7 @@ def _file_text(path: str, location: Location | None) -> str:
     ``location`` (the include), or at the file itself."""
     where = location or Location(path, 1, 1)
     try:
-        with open(path, encoding="utf-8") as handle:
+        with open(path, encoding="utf-8-sig") as handle:  # a byte-order mark is no text
             return handle.read()
     except FileNotFoundError:
         raise UnreadableInput(f"file not found: {path}", where) from None
@@ -599,6 +599,7 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
     """Read one file's statements, expanding includes in place.  Open files
     form an explicit stack, which is also what finds include cycles."""
     notices: list[Notice] = []
+    files = [path]
     root = _Frame(path, identity, text, scan(text, path), [])
     stack = [root]
     while stack:
@@ -640,6 +641,7 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
                     _excerpt_at(frame.text, location),
                 )
             included = _file_text(target, location)
+            files.append(target)
             stack.append(
                 _Frame(
                     target, target_identity, included, scan(included, target), [],
@@ -650,7 +652,7 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
             frame.statements.append(
                 Statement(read.name, read.role, read.language, read.content, location, read.source)
             )
-    return Document(path, tuple(root.statements), tuple(notices), "tptp")
+    return Document(path, tuple(root.statements), tuple(notices), "tptp", tuple(files))
 
 
 def parse_tptp(text: str, path: str = "<string>", include_dirs: Sequence[str] = ()) -> Document:

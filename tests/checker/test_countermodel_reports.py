@@ -188,9 +188,11 @@ def test_refuted_steps_are_the_ones_expected(refuted_steps):
 def test_every_reported_model_is_a_countermodel(refuted_steps):
     for path, step in refuted_steps:
         premises, conclusion = step_premises(path, step.name)
-        assert step.details[0].startswith("domain = {")
-        assert step.details[-1].startswith("falsified: ")
-        model = model_from_report(step.details, [*premises, conclusion])
+        assert step.details[0] == "reason: countermodel"
+        lines = step.details[1:]
+        assert lines[0].startswith("domain = {")
+        assert lines[-1].startswith("falsified: ")
+        model = model_from_report(lines, [*premises, conclusion])
         assert_countermodel(model, premises, conclusion)
 
 

@@ -1,5 +1,5 @@
-"""Soundness attacks that assay still accepts (or, for the last, a latent
-plan fault): each test fails until the hole it describes is closed.
+"""Soundness attacks that assay once accepted (and, for the last, a latent
+plan fault), kept as regressions now that each hole is closed.
 
 Scenarios (rail signals, badge readers) are invented.  See the sibling
 test_soundness_attacks.py for the attacks that are already rejected.
