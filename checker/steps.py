@@ -22,6 +22,7 @@ from checker.formula_steps import (
 )
 from checker.freshness import SymbolTable, new_symbols
 from checker.kernel.clauses import Clause
+from checker.kernel.failure import quote
 from checker.kernel.formulas import Formula
 from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.kernel.rules import check_clause_step
@@ -54,15 +55,20 @@ def closest_lines(candidate: Candidate | None) -> tuple[str, ...]:
         return ()
     lines = [
         f"closest candidate: {candidate.description}",
-        f"computed: {candidate.computed}",
-        f"claimed:  {candidate.claimed}",
+        f"computed: {quote(candidate.computed)}",
+        f"claimed:  {quote(candidate.claimed)}",
     ]
     if candidate.missing:
-        lines.append("produced but not claimed: " + ", ".join(f"`{lit}`" for lit in candidate.missing))
+        lines.append("produced but not claimed: " + ", ".join(quote(lit) for lit in candidate.missing))
     if candidate.extra:
-        lines.append("claimed but not produced: " + ", ".join(f"`{lit}`" for lit in candidate.extra))
+        lines.append("claimed but not produced: " + ", ".join(quote(lit) for lit in candidate.extra))
     lines.append(f"kernel: {candidate.message}")
     return tuple(lines)
+
+
+def premise_names(step: Step) -> str:
+    """Which parent each premise number of a diagnosis is."""
+    return "premises: " + ", ".join(f"{number} = `{name}`" for number, name in enumerate(step.parents))
 
 
 def check_inference(step: Step, parents: Sequence[Statement | None], context: StepContext) -> StepResult:
@@ -102,7 +108,7 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         failure = check_clause_step(premises, claimed, inference.evidence, inference.theta or IDENTITY)
         if failure is None:
             return step_result(step, CHECKED, "kernel replayed the stated evidence")
-        return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
+        return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}", premise_names(step)))
 
     introduces = status not in CONSEQUENCE_STATUSES and new_symbols(claimed, premises)
     if introduces:
@@ -116,16 +122,18 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
             # A certificate that misstates its unifier is wrong even when
             # another unifier works: its producer must see it.
             return step_result(
-                step, FAILED, found.closest.message, ("reason: wrong_bindings", *closest_lines(found.closest))
+                step, FAILED, found.closest.message,
+                ("reason: wrong_bindings", premise_names(step), *closest_lines(found.closest)),
             )
         model = find_countermodel(premises, claimed)
         if model is not None and confirm_countermodel(model, premises, claimed) is None:
             return step_result(
                 step, REFUTED, "counter-model: the premises are true and the claimed clause false",
                 ("reason: countermodel", *render_countermodel(model, premises, claimed).splitlines(),
-                 *closest_lines(found.closest)),
+                 premise_names(step), *closest_lines(found.closest)),
             )
         return step_result(
-            step, UNPROVEN, "no evidence found within the search bounds (see --search-limit)", closest_lines(found.closest)
+            step, UNPROVEN, "no evidence found within the search bounds (see --search-limit)",
+            (premise_names(step), *closest_lines(found.closest)),
         )
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)

@@ -181,7 +181,7 @@ def resolve(premises: Sequence[Clause], evidence: Resolution) -> Clause | Failur
             f"literals not complementary: {_pair(evidence, left_literal, right_literal)} after substitution",
             a.atom,
             _facing(a.atom, b.atom),
-            "the unifier does not make the atoms equal",
+            "the stated substitutions do not make the atoms equal",
         )
     # Clauses are sets: every literal that the substitution merges into the
     # resolved one goes with it.

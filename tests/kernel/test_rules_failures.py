@@ -74,7 +74,7 @@ def test_atoms_differing_after_substitution():
     assert failure.message == (
         "literals not complementary: left literal 0 `q(g(X,a),f(Y))` and right literal 1 `~q(g(b,a),f(a))` "
         "after substitution: `q(g(b,a),f(b))` and `q(g(b,a),f(a))` differ at position 2.1: `b` vs `a` "
-        "(the unifier does not make the atoms equal)"
+        "(the stated substitutions do not make the atoms equal)"
     )
 
 
