@@ -84,6 +84,7 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
                 how = "" if candidate.name == cited else f" (cited as `{cited}`)"
                 return StepResult(step.name, CHECKED, "leaf", f"conjecture `{candidate.name}` of the problem{how}", step.location)
         return _fail(step, f"not a conjecture of the problem: `{content}`", "not_a_problem_conjecture")
+    stated_conjecture = None
     for candidate in candidates:
         if same_content(candidate.content, content) or (
             candidate.name == cited
@@ -92,14 +93,17 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
             and _clause_form_of(candidate.content, content, limits)
         ):
             if candidate.role == "conjecture":
-                return _fail(
-                    step, f"not in the problem as an axiom: it states the problem's conjecture `{candidate.name}`",
-                    "conjecture_as_axiom",
-                )
+                stated_conjecture = stated_conjecture or candidate
+                continue
             how = "" if candidate.name == cited else f" (cited as `{cited}`)"
             return StepResult(
                 step.name, CHECKED, "leaf", f"{candidate.role} `{candidate.name}` of the problem{how}", step.location
             )
+    if stated_conjecture is not None:
+        return _fail(
+            step, f"not in the problem as an axiom: it states the problem's conjecture `{stated_conjecture.name}`",
+            "conjecture_as_axiom",
+        )
     named = [c for c in problem.statements if c.name == cited]
     hint = f"; the problem's `{cited}` is `{named[0].content}`" if named else ""
     return _fail(step, f"not in the problem: `{content}`{hint}", "not_in_problem")

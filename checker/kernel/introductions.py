@@ -91,7 +91,7 @@ def skolemize(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Te
     replacement = quantified(quantifier.connective, remaining, body) if remaining else body
 
     replaced = 0
-    misplaced = 0
+    misplaced: set[int] = set()
     results: list[Formula] = []
     tasks: list[tuple] = [(premise, 1)]
     while tasks:
@@ -108,7 +108,7 @@ def skolemize(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Te
                 replaced += 1
                 results.append(replacement)
                 continue
-            misplaced += 1
+            misplaced.add(polarity)
         if not current.arguments:
             results.append(current)
             continue
@@ -117,10 +117,13 @@ def skolemize(premise: Formula, quantifier: Formula, witnesses: Mapping[Term, Te
         tasks.extend((argument, polarity * factor) for argument, factor in reversed(tuple(zip(current.arguments, factors))))
     if not replaced:
         if misplaced:
+            where = " and ".join(
+                "under an equivalence" if p == 0 else ("in negative polarity" if p < 0 else "in positive polarity")
+                for p in sorted(misplaced)
+            )
             return Failure(
                 "wrong_polarity",
-                f"`{quantifier}` occurs in `{premise}` only where Skolemization may not replace it "
-                "(an existential of negative polarity, a universal of positive polarity, or under an equivalence)",
+                f"`{quantifier}` occurs in `{premise}` only {where}, where Skolemization may not replace it",
             )
         return Failure("no_occurrence", f"`{quantifier}` does not occur in `{premise}`")
     return results[0]

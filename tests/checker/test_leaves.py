@@ -141,3 +141,12 @@ def test_the_certificate_cannot_be_its_own_problem(tmp_path):
     report = check(str(tmp_path / "proof.p"), str(tmp_path / "proof.p"))
     assert report.verdict == "unreadable"
     assert "the problem given is the certificate itself" in report.error
+
+
+def test_a_leaf_matching_an_axiom_and_the_conjecture_is_the_axiom(tmp_path):
+    # The problem states moored(tanker3) both as an axiom and as the
+    # conjecture; a leaf with that content is the axiom, whichever it cites.
+    problem = PROBLEM + "cnf(tanker_moored, axiom, moored(tanker3)).\n"
+    report = run(tmp_path, "cnf(l1, axiom, moored(tanker3), file('problem.p', goal)).\n", problem)
+    leaf = outcomes(report)["l1"]
+    assert leaf.outcome == CHECKED and "axiom `tanker_moored`" in leaf.message

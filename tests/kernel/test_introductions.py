@@ -69,13 +69,25 @@ def test_occurrence_of_wrong_polarity_only():
     premise = parse_formula("~ (? [X] : p(X))")
     failure = skolemize(premise, quantifier_in(premise, "? [X] : p(X)"), {X: application("k")})
     assert failure.reason == "wrong_polarity"
-    assert "? [X] : p(X)" in failure.message
+    assert "? [X] : p(X)" in failure.message and "only in negative polarity" in failure.message
 
 
 def test_quantifier_under_an_equivalence_may_not_be_replaced():
     premise = parse_formula("(? [X] : p(X)) <=> r")
     failure = skolemize(premise, quantifier_in(premise, "? [X] : p(X)"), {X: application("k")})
     assert failure.reason == "wrong_polarity"
+    assert "only under an equivalence" in failure.message
+
+
+def test_a_universal_of_positive_polarity_may_not_be_replaced():
+    # Common practice: replacing ! [X] in positive polarity by a constant
+    # is an instance, not a Skolemization; the kernel says where it stands.
+    premise = parse_formula("(! [X] : p(X)) & ~ (! [X] : p(X))")
+    result = skolemize(premise, quantifier_in(premise, "! [X] : p(X)"), {X: application("k")})
+    assert result is parse_formula("(! [X] : p(X)) & ~ p(k)")
+    positive = parse_formula("! [X] : p(X)")
+    failure = skolemize(positive, positive, {X: application("k")})
+    assert failure.reason == "wrong_polarity" and "only in positive polarity" in failure.message
 
 
 def test_quantifier_that_does_not_occur():
