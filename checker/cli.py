@@ -72,18 +72,25 @@ def main() -> None:
 @click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
               help="Raise or lower one bound of the per-step evidence search (counts, never time): "
               + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")
+@click.option("--require-problem", is_flag=True,
+              help="Refuse (exit 2) a certificate with no problem to check its leaves against, instead of "
+              "checking it on assumptions: for gates in pipelines.")
 @click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
               help="Check steps in this many processes.")
 @click.option("--record", "record_path", type=click.Path(dir_okay=False, writable=True),
               help="Also write a check record (JSON with file hashes and scope statement) for a safety case.")
-def check_command(certificates, problem, include_dirs, report_format, all_steps, search_limits, jobs, record_path) -> None:
+def check_command(
+    certificates, problem, include_dirs, report_format, all_steps, search_limits, require_problem, jobs, record_path
+) -> None:
     """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
     limits = _limits(search_limits)
     if record_path and not os.path.isdir(os.path.dirname(os.path.abspath(record_path))):
         raise click.BadParameter(f"no directory to write {record_path} in", param_hint="--record")
-    reports: list[Report] = [check(path, problem, include_dirs, limits, jobs) for path in certificates]
+    reports: list[Report] = [
+        check(path, problem, include_dirs, limits, jobs, require_problem) for path in certificates
+    ]
     if report_format == "json":
         click.echo(render_json(reports))
     else:

@@ -57,11 +57,14 @@ def check(
     include_dirs: Sequence[str] = (),
     limits: SearchLimits = DEFAULT_LIMITS,
     jobs: int = 1,
+    require_problem: bool = False,
 ) -> Report:
-    """Check the certificate at ``path``, against the problem file if given,
-    spreading the steps over ``jobs`` processes."""
+    """Check the certificate at ``path``, against the problem file if given
+    (or found), spreading the steps over ``jobs`` processes.  With
+    ``require_problem``, a certificate with no problem to link its leaves to
+    is unreadable rather than checked on assumptions."""
     try:
-        return _check(path, problem, tuple(include_dirs), limits, jobs)
+        return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
         if error.excerpt:
@@ -120,7 +123,12 @@ def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
 
 
 def _check(
-    path: str, problem_path: str | None, include_dirs: tuple[str, ...], limits: SearchLimits, jobs: int
+    path: str,
+    problem_path: str | None,
+    include_dirs: tuple[str, ...],
+    limits: SearchLimits,
+    jobs: int,
+    require_problem: bool,
 ) -> Report:
     include_dirs = _include_dirs(include_dirs)
     document = _statements_or_unreadable(read_document(path, include_dirs))
@@ -132,6 +140,9 @@ def _check(
             + (" or in the include directories" if include_dirs else ""),
             Location(path, 1, 1),
         )
+    if require_problem and not problem_path:
+        named = f" (its leaves cite {', '.join(cited)}, not found)" if cited else ""
+        raise UnreadableInput(f"no problem given or found{named}, and one is required", Location(path, 1, 1))
     if problem_path and os.path.exists(problem_path) and os.path.samefile(problem_path, path):
         raise UnreadableInput("the problem given is the certificate itself", Location(problem_path, 1, 1))
     problem = _statements_or_unreadable(read_tptp(problem_path, include_dirs)) if problem_path else None

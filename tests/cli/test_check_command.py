@@ -123,3 +123,13 @@ def test_unwritable_record_is_a_usage_error(tmp_path):
     code, output = run(str(DEMO / "interlock.jsonl"), "--record", str(tmp_path / "missing" / "record.json"))
     assert code == 2
     assert "record.json" in output
+
+
+def test_a_gate_can_require_a_problem(tmp_path):
+    proof = tmp_path / "assumed.p"
+    proof.write_text("cnf(a, axiom, p).\ncnf(b, axiom, ~ p).\ncnf(c, plain, $false, inference(r, [status(thm)], [a, b])).\n")
+    code, output = run(str(proof))
+    assert code == 0 and "no problem was given" in output
+    code, output = run(str(proof), "--require-problem")
+    assert code == 2
+    assert "no problem given or found, and one is required" in output
