@@ -22,7 +22,6 @@ from checker.outcomes import (
     ACCEPTED,
     FAILED,
     INTERNAL_ERROR,
-    REJECTED,
     UNREADABLE,
     Report,
     StepResult,
@@ -122,6 +121,30 @@ def _include_dirs(include_dirs: tuple[str, ...]) -> tuple[str, ...]:
     return include_dirs + ((from_environment,) if from_environment else ())
 
 
+def _refuse_problem(
+    path: str,
+    problem_path: str | None,
+    cited: list[str],
+    document: Document,
+    include_dirs: tuple[str, ...],
+    require_problem: bool,
+) -> None:
+    """Raise when the problem situation makes the certificate uncheckable:
+    a problem the native header names is missing, a required problem is
+    absent, or the problem is the certificate itself."""
+    elsewhere = " or in the include directories" if include_dirs else ""
+    if not problem_path and cited and document.format == "native":
+        raise UnreadableInput(
+            f"the problem the header names, {cited[0]}, was not found next to the certificate{elsewhere}",
+            Location(path, 1, 1),
+        )
+    if require_problem and not problem_path:
+        named = f" (its leaves cite {', '.join(cited)}, not found)" if cited else ""
+        raise UnreadableInput(f"no problem given or found{named}, and one is required", Location(path, 1, 1))
+    if problem_path and os.path.exists(problem_path) and os.path.samefile(problem_path, path):
+        raise UnreadableInput("the problem given is the certificate itself", Location(problem_path, 1, 1))
+
+
 def _check(
     path: str,
     problem_path: str | None,
@@ -134,17 +157,7 @@ def _check(
     document = _statements_or_unreadable(read_document(path, include_dirs))
     cited = [] if problem_path else cited_problems(path, document)
     problem_path = problem_path or discover_problem(path, cited, include_dirs)
-    if not problem_path and cited and document.format == "native":
-        raise UnreadableInput(
-            f"the problem the header names, {cited[0]}, was not found next to the certificate"
-            + (" or in the include directories" if include_dirs else ""),
-            Location(path, 1, 1),
-        )
-    if require_problem and not problem_path:
-        named = f" (its leaves cite {', '.join(cited)}, not found)" if cited else ""
-        raise UnreadableInput(f"no problem given or found{named}, and one is required", Location(path, 1, 1))
-    if problem_path and os.path.exists(problem_path) and os.path.samefile(problem_path, path):
-        raise UnreadableInput("the problem given is the certificate itself", Location(problem_path, 1, 1))
+    _refuse_problem(path, problem_path, cited, document, include_dirs, require_problem)
     problem = _statements_or_unreadable(read_tptp(problem_path, include_dirs)) if problem_path else None
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
@@ -290,6 +303,3 @@ def _whole_derivation(document: Document) -> list[StepResult]:
             ("reason: no_refutation",),
         )
     ]
-
-
-__all__ = ["check", "read_document", "Report", "REJECTED"]
