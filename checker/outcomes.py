@@ -52,6 +52,11 @@ class StepResult:
     details: tuple[str, ...] = ()
 
     @property
+    def reason(self) -> str | None:
+        """The stable code of a failure (its ``reason: CODE`` detail line)."""
+        return next((d.removeprefix("reason: ") for d in self.details if d.startswith("reason: ")), None)
+
+    @property
     def is_problem(self) -> bool:
         return self.outcome in (FAILED, REFUTED, UNPROVEN)
 

@@ -18,6 +18,9 @@ SAFETY_NOTE = (
 )
 
 
+SHOWN_NAMES = 20
+
+
 def _location(step: StepResult) -> str | None:
     return str(step.location) if step.location else None
 
@@ -27,6 +30,7 @@ def step_json(step: StepResult) -> dict:
         "name": step.name,
         "outcome": step.outcome,
         "rule": step.rule,
+        "reason": step.reason,
         "message": step.message,
         "location": _location(step),
         "details": list(step.details),
@@ -47,6 +51,7 @@ def report_json(report: Report) -> dict:
             "step": failure.name,
             "outcome": failure.outcome,
             "rule": failure.rule,
+            "reason": failure.reason,
             "message": failure.message,
             "location": _location(failure),
             "details": list(failure.details),
@@ -79,7 +84,8 @@ def render_text(report: Report, verbose: bool = False) -> str:
         lines.append(f"  caution: {caution}")
     assumed = [step.name for step in report.steps if step.outcome == ASSUMED]
     if assumed:
-        lines.append("  assumed leaves: " + ", ".join(assumed))
+        more = f" and {len(assumed) - SHOWN_NAMES} more" if len(assumed) > SHOWN_NAMES else ""
+        lines.append("  assumed leaves: " + ", ".join(assumed[:SHOWN_NAMES]) + more)
     for notice in report.notices:
         lines.append(f"  notice: {notice.location}: {notice.message}")
     shown = report.steps if verbose else [s for s in (report.first_failure,) if s is not None]

@@ -133,3 +133,21 @@ def test_a_gate_can_require_a_problem(tmp_path):
     code, output = run(str(proof), "--require-problem")
     assert code == 2
     assert "no problem given or found, and one is required" in output
+
+
+def test_json_failures_carry_their_reason_code():
+    code, output = run(str(DEMO / "interlock_broken.jsonl"), "--report", "json")
+    report = json.loads(output)
+    assert report["first_failure"]["reason"] == "atoms_differ"
+    reasons = {step["name"]: step["reason"] for step in report["steps"]}
+    assert reasons["p1_flow_path"] == "atoms_differ"
+    assert all(reason is None for name, reason in reasons.items() if name != "p1_flow_path")
+
+
+def test_a_long_list_of_assumed_leaves_is_cut_short(tmp_path):
+    proof = tmp_path / "many.p"
+    leaves = [f"cnf(a{i}, axiom, p{i})." for i in range(30)]
+    proof.write_text("\n".join(leaves) + "\ncnf(z, axiom, $false).\n")
+    code, output = run(str(proof))
+    assert code == 0
+    assert "assumed leaves: a0, a1," in output and "and 11 more" in output
