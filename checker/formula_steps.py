@@ -107,6 +107,7 @@ def check_introduction(
         return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
     skolemized = list(premises)
     remaining = set(new)
+    witnessed: list[str] = []
     while remaining:
         proposal = next_witness(skolemized, claimed, remaining)
         if isinstance(proposal, Misfit):
@@ -116,11 +117,18 @@ def check_introduction(
             return step_result(step, FAILED, replaced.message, (f"reason: {replaced.reason}",))
         skolemized[proposal.premise] = replaced
         remaining.discard((proposal.witness.symbol, proposal.witness.arity))
+        witnessed.append(f"Skolem term `{proposal.witness}` for `{proposal.bound}` of `{proposal.quantifier}`")
     introduced = ", ".join(describe_symbol(s) for s in sorted(new))
-    return check_consequence(
+    result = check_consequence(
         step, skolemized, as_formula(claimed), limits,
         what=f"Skolemization introducing {introduced}: follows from its Skolemized premises",
     )
+    if result.outcome == RECONSTRUCTED:
+        return result
+    # Say which quantifier each symbol was taken to witness: that pairing is
+    # part of what did not hold.
+    return StepResult(result.name, result.outcome, result.rule, result.message, result.location,
+                      (*result.details, *witnessed))
 
 
 def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits: SearchLimits) -> StepResult:
