@@ -17,7 +17,7 @@ from itertools import repeat
 
 from checker.kernel.clauses import Clause
 from checker.kernel.substitution import Substitution
-from checker.kernel.terms import Term, application, render, symbols_of, variable, variables_of
+from checker.kernel.terms import Term, application, post_order, render, symbols_of, variable, variables_of
 
 ATOM = "atom"
 TRUE = "$true"
@@ -84,22 +84,9 @@ def make(
 def _flat(formula: Formula) -> tuple[tuple[str, tuple[int, ...], tuple[Term, ...], Term | None], ...]:
     """The distinct subformulas, innermost first, each with the indices of
     its arguments in this list."""
-    index: dict[Formula, int] = {}
-    entries = []
-    stack = [formula]
-    while stack:
-        current = stack[-1]
-        if current in index:
-            stack.pop()
-            continue
-        pending = [a for a in current.arguments if a not in index]
-        if pending:
-            stack.extend(pending)
-            continue
-        stack.pop()
-        index[current] = len(entries)
-        entries.append((current.connective, tuple(index[a] for a in current.arguments), current.variables, current.atom))
-    return tuple(entries)
+    nodes = post_order(formula)
+    index = {node: number for number, node in enumerate(nodes)}
+    return tuple((n.connective, tuple(index[a] for a in n.arguments), n.variables, n.atom) for n in nodes)
 
 
 def _from_flat(entries: tuple[tuple[str, tuple[int, ...], tuple[Term, ...], Term | None], ...]) -> Formula:
@@ -183,17 +170,7 @@ _free: dict[Formula, frozenset[Term]] = {}
 
 def free_variables(formula: Formula) -> frozenset[Term]:
     """The variables that occur free in ``formula``."""
-    stack = [formula]
-    while stack:
-        current = stack[-1]
-        if current in _free:
-            stack.pop()
-            continue
-        pending = [a for a in current.arguments if a not in _free]
-        if pending:
-            stack.extend(pending)
-            continue
-        stack.pop()
+    for current in post_order(formula, _free):
         if current.connective == ATOM:
             found = frozenset(variables_of(current.atom))
         else:

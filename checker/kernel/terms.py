@@ -69,25 +69,34 @@ def application(symbol: str, arguments: tuple[Term, ...] = ()) -> Term:
     return term if term is not None else _make(key, symbol, arguments, False)
 
 
-def _flat(term: Term) -> tuple[tuple[bool, str, tuple[int, ...]], ...]:
-    """The distinct subterms of ``term``, innermost first, each as
-    (is_variable, symbol, indices of its arguments in this list)."""
-    index: dict[Term, int] = {}
-    entries: list[tuple[bool, str, tuple[int, ...]]] = []
-    stack = [term]
+def post_order(root, done=frozenset()) -> list:
+    """The distinct nodes of a term or formula (anything with ``arguments``),
+    each after all its arguments, skipping those in ``done`` and what lies
+    below them; iterative, so depth is no limit."""
+    ordered: list = []
+    placed: set = set()
+    stack = [root]
     while stack:
         current = stack[-1]
-        if current in index:
+        if current in placed or current in done:
             stack.pop()
             continue
-        pending = [a for a in current.arguments if a not in index]
+        pending = [a for a in current.arguments if a not in placed and a not in done]
         if pending:
             stack.extend(pending)
             continue
         stack.pop()
-        index[current] = len(entries)
-        entries.append((current.is_variable, current.symbol, tuple(index[a] for a in current.arguments)))
-    return tuple(entries)
+        placed.add(current)
+        ordered.append(current)
+    return ordered
+
+
+def _flat(term: Term) -> tuple[tuple[bool, str, tuple[int, ...]], ...]:
+    """The distinct subterms of ``term``, innermost first, each as
+    (is_variable, symbol, indices of its arguments in this list)."""
+    nodes = post_order(term)
+    index = {node: number for number, node in enumerate(nodes)}
+    return tuple((n.is_variable, n.symbol, tuple(index[a] for a in n.arguments)) for n in nodes)
 
 
 def _from_flat(entries: tuple[tuple[bool, str, tuple[int, ...]], ...]) -> Term:
