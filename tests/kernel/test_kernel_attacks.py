@@ -299,13 +299,13 @@ def test_nested_equality_terms_are_not_alpha_equivalent_when_turned():
 
 
 def test_resolution_substitution_must_unify_exactly():
-    # badge(X) and ~badge(b) with X := a do not clash; accepting would
-    # refute the satisfiable {badge(X) | door(X), ~badge(b)} into door(b)...
+    # badge(X) and ~badge(b) do not clash under X := a; accepting the
+    # mis-stated unifier would derive door(a), which does not follow.
     premises = [cl("badge(X) | door(X)"), cl("~badge(b)")]
     evidence = Resolution(0, 0, 1, 0, left_substitution=Substitution({X: a}))
-    failure = check_clause_step(premises, cl("door(b)"), evidence)
+    failure = check_clause_step(premises, cl("door(a)"), evidence)
     assert failure is not None and failure.reason == "atoms_differ"
-    assert_not_consequence([fo("! [X] : (badge(X) | door(X))"), fo("~badge(b)")], fo("door(b) & door(a) & ~door(a)"))
+    assert_not_consequence([fo("! [X] : (badge(X) | door(X))"), fo("~badge(b)")], fo("door(a)"))
 
 
 def test_paramodulation_at_the_root_is_refused():
@@ -396,9 +396,10 @@ def test_equality_factoring_reversed_flags_must_name_the_shared_side():
 
 
 def test_equality_factoring_of_one_literal_with_itself_is_refused():
-    # Factoring a = b with itself would give b != b | a = b, i.e. drop
-    # nothing, but with reversed flags it would give a != b | ..., which is
-    # not the rule; a single literal is not two.
+    # One literal is not two: with other_reversed, factoring a = b with
+    # itself would give b != a | a = b, and claiming it weakened to a = b |
+    # b != a is harmless, but the same evidence on a = b | R would drop the
+    # only copy of a = b; the kernel refuses the evidence outright.
     failure = check_clause_step([cl("a = b")], cl("a = b"), EqualityFactoring(0, 0, 0, other_reversed=True))
     assert failure is not None and failure.reason == "same_literal"
 
