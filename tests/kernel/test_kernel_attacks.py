@@ -396,11 +396,10 @@ def test_equality_factoring_reversed_flags_must_name_the_shared_side():
 
 
 def test_equality_factoring_of_one_literal_with_itself_is_refused():
-    # One literal is not two: with other_reversed, factoring a = b with
-    # itself would give b != a | a = b, and claiming it weakened to a = b |
-    # b != a is harmless, but the same evidence on a = b | R would drop the
-    # only copy of a = b; the kernel refuses the evidence outright.
-    failure = check_clause_step([cl("a = b")], cl("a = b"), EqualityFactoring(0, 0, 0, other_reversed=True))
+    # One literal is not two: factoring a = b | r with itself would drop
+    # a = b and add b != b, i.e. derive r from a = b | r.
+    assert_not_consequence([fo("a = b | r")], fo("r"))
+    failure = check_clause_step([cl("a = b | r")], cl("b != b | r"), EqualityFactoring(0, 0, 0))
     assert failure is not None and failure.reason == "same_literal"
 
 
