@@ -106,6 +106,8 @@ def evaluate_atom(interpretation: Interpretation, atom: Term, assignment: Assign
         values.append(value)
     if atom.symbol == "=" and atom.arity == 2:
         return values[0] == values[1]
+    if atom.arity == 0 and atom.symbol in ("$true", "$false"):
+        return atom.symbol == "$true"  # TPTP's truth values, whatever a table says
     table = interpretation.predicates.get((atom.symbol, atom.arity))
     if table is None:
         return Failure("missing_table", f"the model has no table for predicate {atom.symbol}/{atom.arity}")

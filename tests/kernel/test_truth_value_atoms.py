@@ -1,9 +1,5 @@
-"""Kernel attacks that the kernel still gets wrong: each test fails on purpose
-until the kernel is fixed (see the comment on each for the fix).
-
-Kept apart from test_kernel_attacks.py so that the gap stays visible in
-every run instead of hiding behind a skip or an xfail.
-"""
+"""`$true` and `$false` kept as atoms of a clause mean what TPTP says they
+mean when a model is evaluated, so a valid clause is never "refuted"."""
 
 from checker.kernel.models import Interpretation, confirm_countermodel
 from checker.outcomes import REFUTED
