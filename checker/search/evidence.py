@@ -217,9 +217,12 @@ def paramodulants(premises: Sequence[Clause], equation_index: int, target_index:
             if side.is_variable:
                 continue
             for m, literal in enumerate(copy.literals):
+                itself = equation_index == target_index and m == k
                 for position, subterm in subterms(literal.atom):
                     if not position or subterm.is_variable or subterm.symbol != side.symbol:
                         continue
+                    if itself and len(position) == 1:
+                        continue  # an equation rewritten at its own side only yields s = s
                     unifier = unify(side, subterm)
                     if unifier is None:
                         continue
