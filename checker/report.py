@@ -42,6 +42,7 @@ def report_json(report: Report) -> dict:
     return {
         "file": report.path,
         "problem": report.problem,
+        "files_read": list(dict.fromkeys(report.files)),
         "verdict": report.verdict,
         "exit_code": report.exit_code,
         "counts": report.counts,

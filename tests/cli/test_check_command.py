@@ -55,6 +55,7 @@ def test_json_report_has_the_fields_programs_rely_on():
     assert all(set(step) >= {"name", "outcome"} for step in report["steps"])
     # The header names the problem, so leaves are checked, not assumed.
     assert "assumed" not in report["counts"]
+    assert [Path(f).name for f in report["files_read"]] == ["interlock.jsonl", "interlock_problem.p"]
 
 
 def test_batch_reports_the_worst_verdict_and_checks_every_file(tmp_path):
