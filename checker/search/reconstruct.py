@@ -42,6 +42,7 @@ from checker.search.evidence import (
     reindexed,
     with_premise_substitutions,
 )
+from checker.search.normal_forms import find_normal_form_chain
 from checker.search.saturation import refute
 from checker.search.subsumption import find_theta
 from checker.search.unify import match_atoms_into, match_into
@@ -255,7 +256,9 @@ class _Search:
 
     def chain(self) -> Reconstruction | None:
         seeds = [Seed(clause, None, index) for index, clause in enumerate(self.searched)] + self.seeds
-        found = find_chain(self.searched, self.claimed, seeds, self.limits.rewrite_steps, self.limits.subsumption_nodes)
+        found = find_chain(
+            self.searched, self.claimed, seeds, self.limits.rewrite_steps, self.limits.subsumption_nodes
+        ) or find_normal_form_chain(self.searched, self.claimed, self.limits.rewrite_steps, self.limits.subsumption_nodes)
         if found is None:
             return None
         chain, theta = found
