@@ -15,7 +15,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 
-from checker.kernel.clauses import Literal, is_equality
+from checker.kernel.clauses import is_equality
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import Term, application
 
@@ -150,14 +150,6 @@ def unify_atoms(left: Term, right: Term, bindings: Substitution | None = None) -
         if unifier is not None and unifier not in found:
             found.append(unifier)
     return found
-
-
-def unify_literals(left: Literal, right: Literal, bindings: Substitution | None = None) -> list[Substitution]:
-    """The most general unifiers making two literals the same literal (same
-    sign, unified atoms).  For complementary literals, unify their atoms."""
-    if left.positive != right.positive:
-        return []
-    return unify_atoms(left.atom, right.atom, bindings)
 
 
 def _match_into(pairs: list[tuple[Term, Term]], bindings: dict[Term, Term]) -> bool:

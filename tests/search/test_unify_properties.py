@@ -21,7 +21,7 @@ from checker.kernel.clauses import Clause, Literal
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import application, variable, variables_of
 from checker.search.subsumption import find_theta
-from checker.search.unify import match, unify, unify_atoms, unify_literals
+from checker.search.unify import match, unify, unify_atoms
 
 SETTINGS = settings(max_examples=200, deadline=None)
 FRESH = [variable("U"), variable("V")]
@@ -128,8 +128,6 @@ def test_equality_atoms_unify_in_both_orientations():
     assert unify_atoms(eq(x, a).atom, eq(a, b).atom) == [Substitution({x: b})]
     assert unify_atoms(fn("q", x, a), fn("q", a, x)) == [Substitution({x: a})]
     assert unify_atoms(fn("q", x, b), fn("q", a, x)) == []
-    assert unify_literals(Literal(True, eq(x, a).atom), Literal(False, eq(x, a).atom)) == []
-    assert unify_literals(Literal(False, eq(x, a).atom), Literal(False, eq(a, b).atom)) == [Substitution({x: b})]
 
 
 @SETTINGS
