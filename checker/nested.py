@@ -14,13 +14,16 @@ from __future__ import annotations
 
 import itertools
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
+from checker.formula_steps import as_formula
 from checker.kernel.clauses import Clause
-from checker.outcomes import RECONSTRUCTED, UNPROVEN, StepResult
+from checker.kernel.formulas import negation
+from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
 from checker.search.evidence import candidates, describe
 from checker.search.saturation import premise_references
+from checker.statuses import weakest_status
 from formats.derivation import Statement
 
 CANDIDATES_PER_STEP = 12
@@ -73,6 +76,42 @@ def _stand_in(step: Step, content: Clause) -> Statement:
     return Statement(step.name, "plain", "cnf", content, step.location, step.inference)
 
 
+def _negations_of_conjectures(
+    outer: Step, nested: Sequence[Step], statements: dict[str, Statement], check_step: CheckStep
+) -> tuple[dict[str, tuple[StepResult, Statement]], StepResult | None]:
+    """Nested records that use a conjecture.  Only its negation may be
+    used, so such a record must negate it (status ``cth``, the conjecture
+    its only parent); its unstated conclusion is then the negation, which
+    is stated for it and checked like any negated conjecture.  Returns the
+    settled records with their stand-in statements, or the failure, which
+    is the outer step's (a nested record has no name of its own)."""
+    found: dict[str, tuple[StepResult, Statement]] = {}
+    for step in nested:
+        parents = [statements.get(name) for name in step.parents]
+        conjecture = next((p for p in parents if p is not None and p.role == "conjecture"), None)
+        if conjecture is None:
+            continue
+        content = negation(as_formula(conjecture.content))
+        stand_in = Statement(step.name, "negated_conjecture", "fof", content, step.location, step.inference)
+        if step.inference.status == "cth":
+            result = check_step(Step(step.name, stand_in, step.inference, step.parents, step.bindings, step.location),
+                                parents)
+        else:
+            result = StepResult(
+                step.name, FAILED, step.inference.rule,
+                f"uses the conjecture `{conjecture.name}` as a premise; only its negation may be used",
+                step.location, ("reason: conjecture_as_premise",),
+            )
+        if result.outcome not in (CHECKED, RECONSTRUCTED):
+            return found, StepResult(
+                outer.name, result.outcome, result.rule,
+                f"in its nested record `{step.name}`: {result.message}", outer.location, result.details,
+            )
+        message = f"conclusion not stated; taken as `{content}`: {result.message}"
+        found[step.name] = (StepResult(step.name, result.outcome, result.rule, message, step.location), stand_in)
+    return found, None
+
+
 def check_with_nested(
     outer: Step,
     nested: Sequence[Step],
@@ -81,11 +120,16 @@ def check_with_nested(
 ) -> list[StepResult]:
     """Results for the nested steps (in order) and then the outer step."""
     assert outer.statement is not None
-    named_parents = {name for step in nested for name in step.parents if name in statements}
-    if any(statements[name].role == "conjecture" for name in named_parents):
-        # Only the negation of a conjecture may be used, and that check needs
-        # the conjecture as a direct parent: check the step as a whole.
-        return _coarse(outer, nested, statements, check_step, {})
+    negations, failure = _negations_of_conjectures(outer, nested, statements, check_step)
+    if failure is not None:
+        return [failure]
+    if negations:
+        statements = {**statements, **{result.name: stand_in for result, stand_in in negations.values()}}
+        nested = [step for step in nested if step.name not in negations]
+        settled = [result for result, _ in negations.values()]
+        if not nested:
+            return [*settled, check_step(outer, [statements.get(name) for name in outer.parents])]
+        return [*settled, *check_with_nested(outer, nested, statements, check_step)]
     options: dict[str, list[Option]] = {}
     for step in nested:  # parents first, as planned
         gathered: dict[Clause, Option] = {}
@@ -116,7 +160,7 @@ def _settled(nested: Sequence[Step], picked: dict[str, Option]) -> list[StepResu
     down to the innermost records."""
     stack = list(picked.items())
     while stack:
-        name, option = stack.pop()
+        _, option = stack.pop()
         for inner in option.from_nested:
             picked.setdefault(*inner)
             stack.append(inner)
@@ -128,6 +172,8 @@ def _settled(nested: Sequence[Step], picked: dict[str, Option]) -> list[StepResu
         )
         for step in nested
     ]
+
+
 def _coarse(
     outer: Step,
     nested: Sequence[Step],
@@ -148,26 +194,29 @@ def _coarse(
             stack.extend(reversed(by_name[name].parents))
         elif name not in leaves:
             leaves.append(name)
-    flattened = Step(outer.name, outer.statement, outer.inference, tuple(leaves), (None,) * len(leaves), outer.location)
+    # The flattened step claims what its weakest record claims: a
+    # Skolemization nested under a `thm` record makes the whole an `esa` step.
+    status = weakest_status(step.inference.status for step in (*nested, outer))
+    inference = replace(outer.inference, status=status)
+    flattened = Step(outer.name, outer.statement, inference, tuple(leaves), (None,) * len(leaves), outer.location)
     result = check_step(flattened, [statements.get(name) for name in leaves])
     covered = result.outcome == RECONSTRUCTED
     nested_results = []
     for step in nested:
         if covered:
-            outcome, message = RECONSTRUCTED, f"conclusion not stated; covered by the check of `{outer.name}` from its named parents"
+            message = f"conclusion not stated; covered by the check of `{outer.name}` from its named parents"
         elif options.get(step.name):
             first = options[step.name][0]
-            outcome, message = RECONSTRUCTED, (
+            message = (
                 f"conclusion not stated; its inference yields `{first.content}` by {first.how} "
                 f"(one of {len(options[step.name])} candidates), none of which lets `{outer.name}` follow"
             )
         else:
-            outcome, message = UNPROVEN, "conclusion not stated, and no inference from its parents was found"
-        nested_results.append(StepResult(step.name, outcome, step.inference.rule, message, step.location))
-    if covered:
-        result = StepResult(
-            result.name, result.outcome, result.rule,
-            f"{result.message} (checked from {', '.join(leaves)}, under its nested records)",
-            result.location, result.details,
-        )
+            continue  # not checked on its own: the outer step's diagnosis covers it
+        nested_results.append(StepResult(step.name, RECONSTRUCTED, step.inference.rule, message, step.location))
+    result = StepResult(
+        result.name, result.outcome, result.rule,
+        f"{result.message} (checked from {', '.join(leaves)}, under its nested records)",
+        result.location, result.details,
+    )
     return [*nested_results, result]

@@ -11,10 +11,11 @@ first, keeping the written order wherever it already does so.
 from __future__ import annotations
 
 import heapq
-from dataclasses import dataclass
+import os
+from dataclasses import dataclass, replace
 
 from checker.outcomes import FAILED, StepResult
-from formats.derivation import Document, Inference, Location, Parent, Statement
+from formats.derivation import Document, Inference, Location, Origin, Parent, Statement
 
 
 @dataclass(frozen=True, slots=True)
@@ -96,6 +97,34 @@ def _unfold(statement: Statement, taken: set[str]) -> list[Step]:
             )
         )
     return steps
+
+
+def with_cited_problem_statements(document: Document, problem: Document | None) -> Document:
+    """The document, preceded by the problem statements its steps cite by
+    name without stating them (the TPTP standard lets a derivation name a
+    problem formula directly); each becomes a leaf whose source is the
+    problem, so it is linked and checked like a copied leaf."""
+    if problem is None:
+        return document
+    defined = {statement.name for statement in document.statements}
+    cited: list[str] = []
+    for statement in document.statements:
+        stack = [statement.source] if isinstance(statement.source, Inference) else []
+        while stack:
+            for parent in stack.pop().parents:
+                if isinstance(parent, Inference):
+                    stack.append(parent)
+                elif parent.name not in defined and parent.name not in cited:
+                    cited.append(parent.name)
+    inputs = {}
+    for statement in problem.statements:
+        if not isinstance(statement.source, Inference):  # only inputs justify leaves
+            inputs.setdefault(statement.name, statement)
+    source_name = os.path.basename(problem.path)
+    added = tuple(
+        replace(inputs[name], source=Origin("file", (source_name, name))) for name in cited if name in inputs
+    )
+    return replace(document, statements=added + document.statements) if added else document
 
 
 def make_plan(document: Document) -> Plan:

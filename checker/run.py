@@ -13,14 +13,12 @@ import traceback
 from collections import Counter
 from collections.abc import Sequence
 
+from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.freshness import build_symbol_table
-from checker.kernel.clauses import Clause
-from checker.kernel.formulas import FALSUM
-from checker.leaves import check_leaf, equivalent_content
+from checker.leaves import check_leaf
 from checker.nested import check_with_nested
 from checker.outcomes import (
     ACCEPTED,
-    FAILED,
     INTERNAL_ERROR,
     UNREADABLE,
     Report,
@@ -28,7 +26,7 @@ from checker.outcomes import (
     verdict_of,
 )
 from checker.parallel import map_in_processes
-from checker.plan import make_plan
+from checker.plan import make_plan, with_cited_problem_statements
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.steps import StepContext, check_inference
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
@@ -159,6 +157,7 @@ def _check(
     problem_path = problem_path or discover_problem(path, cited, include_dirs)
     _refuse_problem(path, problem_path, cited, document, include_dirs, require_problem)
     problem = _statements_or_unreadable(read_tptp(problem_path, include_dirs)) if problem_path else None
+    document = with_cited_problem_statements(document, problem)
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
     context = StepContext(limits, build_symbol_table(plan.steps, problem), conjectures)
@@ -185,8 +184,8 @@ def _check(
 
     stated = [step for step in plan.steps if step.statement is not None]
     results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]
-    results = _one_conjecture_at_a_time(plan, statements, problem, results)
-    results.extend(_whole_derivation(document))
+    results = one_conjecture_at_a_time(plan, statements, problem, results)
+    results.extend(reaches_refutation(document))
     verdict = verdict_of(results)
     cautions = []
     if problem is None and verdict == ACCEPTED:
@@ -195,84 +194,11 @@ def _check(
             cautions.append(f"the leaves cite {', '.join(cited)}, which was not found next to the derivation"
                             + (" or in the include directories" if include_dirs else ""))
     if problem is not None and verdict == ACCEPTED:
-        cautions.extend(_conjecture_cautions(plan, statements, problem))
+        cautions.extend(conjecture_cautions(plan, statements, problem))
     return Report(
         path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions),
         files=document.files + (problem.files if problem else ()),
     )
-
-
-def _negations(plan, statements, problem: Document | None = None) -> list[tuple[str, str]]:
-    """(step, conjecture) for each stated step that uses a conjecture, in
-    order, looking through its nested records; the conjecture by the name
-    the problem gives the statement it equals, when there is a problem."""
-    found = []
-    for step in plan.steps:
-        if step.is_leaf:
-            continue
-        stated = step.name if step.statement is not None else step.name.rpartition("/")[0]
-        for name in step.parents:
-            parent = statements.get(name)
-            if parent is not None and parent.role == "conjecture":
-                found.append((stated, _problem_name(parent, problem)))
-    return found
-
-
-def _problem_name(conjecture: Statement, problem: Document | None) -> str:
-    """The problem's name for the conjecture a statement states (by content;
-    the cited name only breaks ties between identical conjectures)."""
-    if problem is None:
-        return conjecture.name
-    source = conjecture.source
-    cited = source.detail[1] if isinstance(source, Origin) and len(source.detail) > 1 else None
-    equal = [
-        s.name for s in problem.statements if s.role == "conjecture" and equivalent_content(s.content, conjecture.content)
-    ]
-    if not equal:
-        return conjecture.name
-    return cited if cited in equal else equal[0]
-
-
-def _one_conjecture_at_a_time(plan, statements, problem: Document | None, results: list[StepResult]) -> list[StepResult]:
-    """TPTP takes a problem's conjectures one at a time: a derivation that
-    negates two of them refutes only their disjunction, so the step that
-    negates the second one is failed."""
-    negations = _negations(plan, statements, problem)
-    if len({conjecture for _, conjecture in negations}) < 2:
-        return results
-    first_step, first = negations[0]
-    blamed = {
-        step: f"negates conjecture `{conjecture}`, but step `{first_step}` already negated conjecture `{first}`: "
-        "each conjecture must be refuted on its own (a refutation from both negations proves only their disjunction)"
-        for step, conjecture in negations
-        if conjecture != first
-    }
-    return [
-        StepResult(r.name, FAILED, r.rule, blamed[r.name], r.location, ("reason: second_conjecture",))
-        if r.name in blamed
-        else r
-        for r in results
-    ]
-
-
-def _conjecture_cautions(plan, statements, problem: Document) -> list[str]:
-    """What an accepted refutation does and does not show about the conjectures."""
-    conjectures = [s.name for s in problem.statements if s.role == "conjecture"]
-    if not conjectures:
-        return []
-    negated = {conjecture for _, conjecture in _negations(plan, statements, problem)}
-    if not negated:
-        return [
-            "the refutation uses no negated conjecture: it shows the problem's axioms are inconsistent, "
-            "so every conjecture follows from them trivially"
-        ]
-    others = [c for c in conjectures if c not in negated]
-    if others:
-        return [
-            f"proves conjecture {', '.join(sorted(negated))} only; the problem's other conjectures "
-            f"({', '.join(others)}) are not addressed"
-        ]
-    return []
 
 
 def _nested_by_outer(plan) -> dict[str, list]:
@@ -282,24 +208,3 @@ def _nested_by_outer(plan) -> dict[str, list]:
         if step.statement is None:
             found.setdefault(step.name.rpartition("/")[0], []).append(step)
     return found
-
-
-def _whole_derivation(document: Document) -> list[StepResult]:
-    """The derivation must reach the empty clause (a refutation); a
-    conjecture of `$false` is something to show, not something reached."""
-    for statement in document.statements:
-        if statement.role == "conjecture":
-            continue
-        content = statement.content
-        if (isinstance(content, Clause) and content.is_empty) or content is FALSUM:
-            return []
-    return [
-        StepResult(
-            "(derivation)",
-            FAILED,
-            "refutation",
-            "the derivation never reaches the empty clause (`$false`)",
-            Location(document.path, 1, 1),
-            ("reason: no_refutation",),
-        )
-    ]

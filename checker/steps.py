@@ -32,11 +32,8 @@ from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, 
 from checker.plan import Step
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
+from checker.statuses import CONSEQUENCE_STATUSES
 from formats.derivation import Statement
-
-# TPTP statuses (SZS ontology) under which the conclusion is a logical
-# consequence of the parents.
-CONSEQUENCE_STATUSES = frozenset({"thm", "cth", "tau", "eqv", "tac", "wec", "eth", "wth", "wtc", "wcs"})
 
 
 @dataclass(frozen=True, slots=True)
