@@ -34,6 +34,7 @@ from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.entailment import find_entailment
+from checker.search.equivalences import has_equivalence, without_equivalences
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.witnesses import Misfit, matching_witnesses, next_witness
@@ -105,7 +106,7 @@ def check_introduction(
     not_fresh = table.freshness_failure(step.name, new)
     if not_fresh:
         return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
-    skolemized = list(premises)
+    skolemized = [_equivalences_written_out(premise, limits) for premise in premises]
     remaining = set(new)
     witnessed: list[str] = []
     while remaining:
@@ -129,6 +130,20 @@ def check_introduction(
     # part of what did not hold.
     return StepResult(result.name, result.outcome, result.rule, result.message, result.location,
                       (*result.details, *witnessed))
+
+
+def _equivalences_written_out(premise: Formula, limits: SearchLimits) -> Formula:
+    """The premise with its equivalences written as implications, when the
+    kernel replays that the premise entails that form (so a quantifier
+    under an equivalence can be Skolemized where it occurs positively);
+    else the premise as it is."""
+    if not has_equivalence(premise):
+        return premise
+    written = without_equivalences(premise)
+    chain = find_entailment([premise], written, limits)
+    if chain is not None and check_entailment([premise], written, chain) is None:
+        return written
+    return premise
 
 
 def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits: SearchLimits) -> StepResult:
