@@ -113,7 +113,8 @@ def _fail(step: Step, message: str, reason: str) -> StepResult:
 
 
 def _checked(step: Step, candidate: Statement, cited: str, how: str = "") -> StepResult:
-    named = "" if candidate.name == cited else f" (cited as `{cited}`)"
+    cites = isinstance(step.statement.source, Origin) and step.statement.source.kind == "file"
+    named = "" if candidate.name == cited else f" (cited as `{cited}`)" if cites else " (by content)"
     return StepResult(
         step.name, CHECKED, "leaf", f"{candidate.role} `{candidate.name}` of the problem{named}{how}", step.location
     )
