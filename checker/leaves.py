@@ -24,8 +24,7 @@ from checker.freshness import SymbolTable
 from checker.kernel.clauses import Clause
 from checker.kernel.entailment import check_entailment
 from checker.kernel.formulas import Formula, alpha_equivalent, symbols_of_formula
-from checker.kernel.rules import Chain
-from checker.kernel.rules import check_conclusion
+from checker.kernel.rules import Chain, check_conclusion
 from checker.outcomes import (
     ASSUMED,
     CHECKED,
@@ -39,6 +38,10 @@ from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.search.restatement import restates, shape_of
 from checker.search.subsumption import find_theta
 from formats.derivation import Document, Inference, Origin, Statement
+
+PROPOSED_SCALE = 4
+"""How much further the entailment search may go for a statement the leaf
+restates (it holds; only the search may fall short, on nested equivalences)."""
 
 CONTENT_CANDIDATES = 3
 """Problem statements, besides the cited one, whose restatement a leaf's
@@ -67,6 +70,16 @@ def entailment(premise: Clause | Formula, conclusion: Clause | Formula, limits: 
     return _entailment(as_formula(premise), as_formula(conclusion), limits)
 
 
+def _confirmed(
+    premise: Clause | Formula, conclusion: Clause | Formula, limits: SearchLimits, proposed: bool
+) -> Chain | None:
+    """An entailment, searched further when the conclusion restates the premise."""
+    chain = entailment(premise, conclusion, limits)
+    if chain is None and proposed:
+        chain = entailment(premise, conclusion, limits.scaled(PROPOSED_SCALE))
+    return chain
+
+
 @lru_cache(maxsize=256)
 def _entailment(premise: Formula, conclusion: Formula, limits: SearchLimits) -> Chain | None:
     # Cached: the same conjecture is compared for its leaf, for each step
@@ -86,8 +99,9 @@ def _equivalence(
         return ""
     if symbols_of_formula(as_formula(problem_content)) != symbols_of_formula(as_formula(leaf_content)):
         return None
-    there = entailment(problem_content, leaf_content, limits)
-    back = there and entailment(leaf_content, problem_content, limits)
+    proposed = restated(problem_content, leaf_content, limits)
+    there = _confirmed(problem_content, leaf_content, limits, proposed)
+    back = there and _confirmed(leaf_content, problem_content, limits, proposed)
     if not back:
         return None
     return f", restated (kernel replayed refutations both ways, in {_inferences(there)} and {_inferences(back)})"
@@ -182,7 +196,7 @@ def _check_axiom_leaf(step: Step, candidates: list[Statement], cited: str, limit
             if is_restated:
                 stated_conjecture = stated_conjecture or candidate
             continue
-        chain = entailment(candidate.content, content, limits)
+        chain = _confirmed(candidate.content, content, limits, is_restated)
         if chain is not None:
             how = ", restated" if is_restated else ", as a consequence"
             return _checked(step, candidate, cited, f"{how} (kernel replayed a refutation in {_inferences(chain)})")

@@ -50,8 +50,8 @@ ACCEPTED_RESTATEMENTS = [
      "fof(l, axiom, (holds(Z,P) & opens(P,D)) => (enter(Z,D) | revoked(P)), file('problem.p', badge_rule)).",
      "badge_rule"),
     ("prefix split into two blocks",
-     "fof(l, axiom, ! [P] : ! [Z,D] : ((holds(P,D) & opens(D,Z)) => (enter(P,Z) | revoked(D))), "
-     "file('problem.p', badge_rule)).",
+     ("fof(l, axiom, ! [P] : ! [Z,D] : ((holds(P,D) & opens(D,Z)) => (enter(P,Z) | revoked(D))), "
+     "file('problem.p', badge_rule))."),
      "badge_rule"),
     ("existential body reordered, variables renamed",
      "fof(l, axiom, ! [X0] : (visitor(X0) => ? [X1] : (staff(X1) & escorts(X1,X0))), file('problem.p', escort_rule)).",
@@ -111,13 +111,13 @@ STRONGER_THAN_THE_AXIOM = [
     ("quantifiers swapped, one escort for all",
      "fof(l, axiom, ? [E] : ! [P] : (visitor(P) => (escorts(E,P) & staff(E))), file('problem.p', escort_rule))."),
     ("sign flipped, hidden by reordering",
-     "fof(l, axiom, ! [P,D,Z] : ((opens(D,Z) & holds(P,D)) => (~ revoked(D) | enter(P,Z))), "
-     "file('problem.p', badge_rule))."),
+     ("fof(l, axiom, ! [P,D,Z] : ((opens(D,Z) & holds(P,D)) => (~ revoked(D) | enter(P,Z))), "
+     "file('problem.p', badge_rule)).")),
     ("a different equation", "fof(l, axiom, ~ (master_badge = badge_of(guest8)), file('problem.p', guest_badge))."),
     ("an equation turned into another", "fof(l, axiom, ! [X0] : (desk(X0) => desk2 = X0), file('problem.p', one_desk))."),
     ("variables crossed",
-     "fof(l, axiom, ! [X0,X1,X2] : ((holds(X0,X1) & opens(X1,X2)) => (enter(X2,X0) | revoked(X1))), "
-     "file('problem.p', badge_rule))."),
+     ("fof(l, axiom, ! [X0,X1,X2] : ((holds(X0,X1) & opens(X1,X2)) => (enter(X2,X0) | revoked(X1))), "
+     "file('problem.p', badge_rule)).")),
     ("an existential left free, so universal", "fof(l, axiom, opens(D, lobby), file('problem.p', some_door))."),
     ("stronger, found by content only",
      "fof(l, axiom, ! [X2,X0,X1] : ((opens(X1,X2) & holds(X0,X1)) => enter(X0,X2)), file('problem.p', unknown))."),
