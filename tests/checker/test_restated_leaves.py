@@ -11,6 +11,7 @@ rules fof_infix_unary and fof_unitary_formula, from memory).
 """
 
 import pytest
+from tptp_derivation_files import DERIVATIONS, scenarios
 
 from checker.outcomes import CHECKED, FAILED, UNPROVEN
 from checker.run import check
@@ -225,3 +226,20 @@ def test_a_refutation_from_restated_leaves_negating_a_restated_conjecture_is_acc
     steps = {step.name: step for step in report.steps}
     assert all(steps[name].outcome == CHECKED for name in ("f1", "f2", "f3", "f4", "f5"))
     assert "as a consequence" in steps["f4"].message and "restated" in steps["f1"].message
+
+
+RESTATING_SCENARIOS = [
+    "archive_dehumidifier", "cargo_hold_ventilation", "harbour_pilot_roster",
+    "lab_freezer_alarm", "seed_vault_access", "tram_depot_points",
+]
+
+
+@pytest.mark.parametrize("name", RESTATING_SCENARIOS)
+def test_the_derivation_fixtures_hold_restated_leaves(name):
+    # fixtures/tptp/derivations: derivations whose leaves a prover restated
+    # (test_tptp_derivations.py checks each is accepted, test_tptp_mutants.py
+    # that its mutant is rejected at the one restated leaf made wrong).
+    scenario = DERIVATIONS / name
+    assert scenario in scenarios()
+    report = check(str(scenario / "proof.p"), str(scenario / "problem.p"))
+    assert any(step.outcome == CHECKED and "restated" in step.message for step in report.steps)
