@@ -16,7 +16,7 @@ and a conjecture leaf and the problem's conjecture entail each other.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 from functools import lru_cache
 
 from checker.formula_steps import as_formula, check_introduced_leaf
@@ -178,19 +178,19 @@ def _check_conjecture_leaf(step: Step, conjectures: list[Statement], cited: str,
 
 
 def _check_axiom_leaf(step: Step, candidates: list[Statement], cited: str, limits: SearchLimits) -> StepResult:
-    """Cheapest first: the same statement (a variant, or a weakening of a
-    clause) anywhere in the problem; then an entailment from the cited
-    statement; then from the few statements the leaf restates."""
+    """Cheapest first (see :func:`_tries`); a statement the leaf restates but
+    that the search could not confirm leaves it unproven, not failed."""
     content = step.statement.content
     stated_conjecture = None
-    for candidate in candidates:
-        if same_content(candidate.content, content):
+    unconfirmed = None
+    for candidate, same in _tries(candidates, cited, content, limits):
+        if same:
+            if not same_content(candidate.content, content):
+                continue
             if candidate.role == "conjecture":
                 stated_conjecture = stated_conjecture or candidate
                 continue
             return _checked(step, candidate, cited)
-    unconfirmed = None
-    for candidate in _entailment_candidates(candidates, cited, content, limits):
         is_restated = candidate.name != cited or restated(candidate.content, content, limits)
         if candidate.role == "conjecture":
             if is_restated:
@@ -212,12 +212,21 @@ def _check_axiom_leaf(step: Step, candidates: list[Statement], cited: str, limit
     return _fail(step, f"not in the problem: `{content}`{_closest(candidates, cited, content)}", "not_in_problem")
 
 
-def _entailment_candidates(candidates: list[Statement], cited: str, content: Clause | Formula, limits: SearchLimits):
-    """The cited statements, then the first few others the content restates."""
-    yield from (c for c in candidates if c.name == cited)
-    others = (c for c in candidates if c.name != cited and restated(c.content, content, limits))
-    for _, candidate in zip(range(CONTENT_CANDIDATES), others):
-        yield candidate
+def _tries(
+    candidates: list[Statement], cited: str, content: Clause | Formula, limits: SearchLimits
+) -> Iterator[tuple[Statement, bool]]:
+    """(problem statement, whether to ask for the same content rather than
+    an entailment), in the order worth trying: the cited statement as the
+    same content, then entailing the leaf; any other as the same content;
+    then, by entailment, the first few others the leaf restates."""
+    named = [c for c in candidates if c.name == cited]
+    others = [c for c in candidates if c.name != cited]
+    yield from ((c, True) for c in named)
+    yield from ((c, False) for c in named)
+    yield from ((c, True) for c in others)
+    restating = (c for c in others if restated(c.content, content, limits))
+    for _, candidate in zip(range(CONTENT_CANDIDATES), restating):
+        yield candidate, False
 
 
 def _closest(candidates: list[Statement], cited: str, content: Clause | Formula) -> str:
