@@ -13,9 +13,11 @@ rules fof_infix_unary and fof_unitary_formula, from memory).
 import pytest
 from tptp_derivation_files import DERIVATIONS, scenarios
 
+from checker.leaves import equivalent_content
 from checker.outcomes import CHECKED, FAILED, UNPROVEN
 from checker.run import check
 from checker.search.reconstruct import SearchLimits
+from formats.tptp import parse_formula
 
 PROBLEM = """
 fof(badge_rule, axiom, ! [P,D,Z] : ((holds(P,D) & opens(D,Z)) => (enter(P,Z) | revoked(D)))).
@@ -243,3 +245,22 @@ def test_the_derivation_fixtures_hold_restated_leaves(name):
     assert scenario in scenarios()
     report = check(str(scenario / "proof.p"), str(scenario / "problem.p"))
     assert any(step.outcome == CHECKED and "restated" in step.message for step in report.steps)
+
+
+@pytest.mark.parametrize(
+    ("problem", "leaf", "equivalent"),
+    [
+        # common practice: reorderings and rewordings that keep the meaning
+        ("! [P,Z] : ((cleared(P) & zone(Z)) => enter(P,Z))", "! [X1,X0] : ((zone(X1) & cleared(X0)) => enter(X0,X1))",
+         True),
+        ("! [P,Z] : ((cleared(P) & zone(Z)) => enter(P,Z))", "! [X0,X1] : (~ cleared(X0) | ~ zone(X1) | enter(X0,X1))",
+         True),
+        ("a != b", "~ (b = a)", True),
+        # one direction only: never enough for a conjecture
+        ("! [P,Z] : ((cleared(P) & zone(Z)) => enter(P,Z))", "! [P,Z] : (cleared(P) => enter(P,Z))", False),
+        ("! [P,Z] : (cleared(P) => enter(P,Z))", "! [P,Z] : ((cleared(P) & zone(Z)) => enter(P,Z))", False),
+        ("? [P] : enter(P,lobby)", "! [P] : enter(P,lobby)", False),
+    ],
+)
+def test_equivalent_content_needs_entailment_both_ways(problem, leaf, equivalent):
+    assert equivalent_content(parse_formula(problem), parse_formula(leaf)) is equivalent
