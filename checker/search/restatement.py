@@ -156,34 +156,39 @@ Goals = tuple | None
 pair, or tuples of shapes to match as bags."""
 
 
-def restates(left: Shape, right: Shape, attempts: int) -> bool:
+def restates(left: Shape, right: Shape, alternatives: int) -> bool:
     """Whether ``right`` is ``left`` up to the order of bags, a renaming of
     each quantifier block onto a block of the other (variables in any
-    order) and the sides of equations, found within ``attempts`` goals."""
+    order) and the sides of equations, found trying at most
+    ``alternatives`` choices beyond the first at each choice point (a
+    match without choices costs nothing, however large the formulas)."""
     states: list[tuple[Goals, dict[Term, Term], dict[Term, Term], dict[Term, tuple[Term, ...]]]]
     states = [(((_PAIR, left, right), None), {}, {}, {})]
     while states:
         goals, forward, backward, blocks = states.pop()
         alive = True
         while alive and goals is not None:
-            attempts -= 1
-            if attempts < 0:
-                return False
             (kind, f, g), goals = goals
             if kind == _BAG:
                 if f:
                     options = [i for i, candidate in enumerate(g) if candidate.signature == f[0].signature]
-                    alternatives = [((_PAIR, f[0], g[i]), ((_BAG, f[1:], g[:i] + g[i + 1 :]), goals)) for i in options]
-                    for other in reversed(alternatives[1:]):
+                    choices = [((_PAIR, f[0], g[i]), ((_BAG, f[1:], g[:i] + g[i + 1 :]), goals)) for i in options]
+                    alternatives -= max(0, len(choices) - 1)
+                    if alternatives < 0:
+                        return False
+                    for other in reversed(choices[1:]):
                         states.append((other, dict(forward), dict(backward), dict(blocks)))
-                    alive = bool(alternatives)
-                    goals = alternatives[0] if alive else None
+                    alive = bool(choices)
+                    goals = choices[0] if alive else None
             elif (f.signature, f.connective, len(f.children), len(f.bound)) != (
                 g.signature, g.connective, len(g.children), len(g.bound)
             ):
                 alive = False
             elif f.connective == ATOM:
                 found = [added for pairs in _sides(f.atom, g.atom) if (added := _bind(pairs, forward, backward, blocks)) is not None]
+                alternatives -= max(0, len(found) - 1)
+                if alternatives < 0:
+                    return False
                 for added in found[1:]:
                     other_forward, other_backward = dict(forward), dict(backward)
                     _extend(added, other_forward, other_backward)

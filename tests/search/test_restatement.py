@@ -53,11 +53,11 @@ from checker.search.reconstruct import DEFAULT_LIMITS
 from checker.search.restatement import restates, shape_of
 from formats.tptp import parse_formula
 
-ATTEMPTS = 2000
+ALTERNATIVES = 2000
 
 
-def same(left: str, right: str, attempts: int = ATTEMPTS) -> bool:
-    return restates(shape_of(parse_formula(left)), shape_of(parse_formula(right)), attempts)
+def same(left: str, right: str, alternatives: int = ALTERNATIVES) -> bool:
+    return restates(shape_of(parse_formula(left)), shape_of(parse_formula(right)), alternatives)
 
 
 @pytest.mark.parametrize(
@@ -109,12 +109,19 @@ def test_a_formula_does_not_restate_a_different_one(left, right):
 
 
 def test_the_search_stops_at_its_bound():
-    # Four disjuncts alike but for their second argument: the first choice
-    # of each is wrong in the reversed order, so matching needs many goals.
-    left = "p(X,a) | p(X,b) | p(X,c) | p(X,d)"
-    right = "p(Y,d) | p(Y,c) | p(Y,b) | p(Y,a)"
+    # Three disjuncts alike but for their variables: each may pair with any
+    # of the other's, so the search must choose, and back up.
+    left = "! [A,B,C,D] : (p(A,B) | p(B,C) | p(C,D))"
+    right = "! [W,X,Y,Z] : (p(Y,Z) | p(X,Y) | p(W,X))"
     assert same(left, right)
-    assert not same(left, right, attempts=3)
+    assert not same(left, right, alternatives=1)
+
+
+def test_a_match_without_choices_costs_nothing_however_long():
+    # Prover output chains thousands of conjuncts; with all of them distinct
+    # there is nothing to choose, and no bound to run out of.
+    conjuncts = [f"p{i}(X)" for i in range(3000)]
+    assert same("! [X] : (" + " & ".join(conjuncts) + ")", " & ".join(reversed(conjuncts)), alternatives=0)
 
 
 # --- propositional: every proposal is an equivalence (SymPy) ---------------
@@ -222,7 +229,7 @@ def equivalent_in_sympy(left: Formula, right: Formula) -> bool:
 def test_a_random_reordering_is_proposed_and_sympy_agrees_it_is_equivalent(formula, rng):
     restatement = reordered(formula, rng)
     assert equivalent_in_sympy(formula, restatement)  # the test's own reordering is sound
-    assert restates(shape_of(formula), shape_of(restatement), ATTEMPTS)
+    assert restates(shape_of(formula), shape_of(restatement), ALTERNATIVES)
 
 
 @settings(max_examples=300, deadline=None)
@@ -231,7 +238,7 @@ def test_a_proposal_between_a_formula_and_a_mutant_is_an_equivalence(formula, rn
     # SymPy (satisfiable): whatever the proposer matches must be equivalent;
     # a negated subformula usually changes the meaning, and must then not match.
     mutant = reordered(mutated(formula, rng), rng)
-    if restates(shape_of(formula), shape_of(mutant), ATTEMPTS):
+    if restates(shape_of(formula), shape_of(mutant), ALTERNATIVES):
         assert equivalent_in_sympy(formula, mutant)
 
 
@@ -266,7 +273,7 @@ first_order = st.recursive(fo_atoms, _fo_extend, max_leaves=4)
 @given(first_order, st.randoms(use_true_random=False))
 def test_a_first_order_reordering_is_proposed_and_the_kernel_confirms_it_both_ways(formula, rng):
     restatement = reordered(formula, rng)
-    assert restates(shape_of(formula), shape_of(restatement), ATTEMPTS)
+    assert restates(shape_of(formula), shape_of(restatement), ALTERNATIVES)
     for premise, conclusion in ((formula, restatement), (restatement, formula)):
         chain = find_entailment([premise], conclusion, DEFAULT_LIMITS)
         assert chain is not None and check_entailment([premise], conclusion, chain) is None
