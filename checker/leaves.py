@@ -104,7 +104,8 @@ def _equivalence(
     back = there and _confirmed(leaf_content, problem_content, limits, proposed)
     if not back:
         return None
-    return f", restated (kernel replayed refutations both ways, in {_inferences(there)} and {_inferences(back)})"
+    how = "restated" if proposed else "equivalent"
+    return f", {how} (kernel replayed refutations both ways, in {_inferences(there)} and {_inferences(back)})"
 
 
 def equivalent_content(
