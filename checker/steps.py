@@ -89,7 +89,8 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
             return step_result(step, FAILED, "a negated conjecture must have the conjecture as its only parent",
                            ("reason: negation_parents",))
         if context.conjectures is not None and not any(
-            equivalent_content(conjecture, conjectures[0].content) for conjecture in context.conjectures
+            equivalent_content(conjecture, conjectures[0].content, context.limits)
+            for conjecture in context.conjectures
         ):
             return step_result(
                 step, FAILED, f"negates `{conjectures[0].name}`, which is not a conjecture of the problem",

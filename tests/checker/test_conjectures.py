@@ -126,10 +126,12 @@ def test_a_negation_step_takes_the_conjecture_alone(tmp_path):
 def test_negating_a_derived_statement_labelled_conjecture_fails(tmp_path):
     # Only a conjecture of the problem may be negated: a step that merely
     # carries the role `conjecture` proves nothing about the problem's goal.
+    # Its content is weaker than goal_locked (implied by it, not implying
+    # it), so the refutation shows only locked(door1) | sealed(door1).
     proof = """
 fof(door_locked, axiom, locked(door1), file('problem.p', door_locked)).
-fof(fake_goal, conjecture, ~ ~ locked(door1), inference(weaken, [status(thm)], [door_locked])).
-fof(n1, negated_conjecture, ~ ~ ~ locked(door1), inference(negate, [status(cth)], [fake_goal])).
+fof(fake_goal, conjecture, locked(door1) | sealed(door1), inference(weaken, [status(thm)], [door_locked])).
+fof(n1, negated_conjecture, ~ (locked(door1) | sealed(door1)), inference(negate, [status(cth)], [fake_goal])).
 cnf(c1, plain, locked(door1), inference(clausify, [status(thm)], [door_locked])).
 cnf(c2, plain, ~ locked(door1), inference(clausify, [status(thm)], [n1])).
 cnf(c3, plain, $false, inference(resolve, [status(thm)], [c1, c2])).
