@@ -403,8 +403,8 @@ class _Eraser:
             raise _unsupported(f"applying the variable `{head.name}` is not first-order", head.token)
         if isinstance(head, Refused):
             raise _unsupported(head.what, head.token)
-        if isinstance(head, Quantify) and head.quantifier == "^":
-            raise _unsupported("lambda abstraction (^) is not first-order", head.token)
+        if isinstance(head, Quantify):
+            self._open(head)  # refuses every binder but ! and ?
         if not isinstance(head, Word):
             raise _unsupported("applying something other than a symbol is not first-order", node.token)
         return self._application(head, node, arguments)
