@@ -205,3 +205,38 @@ def test_a_step_over_arithmetic_sorts_that_does_not_rely_on_them_is_accepted(tmp
     )
     report = check(proof)
     assert report.verdict == ACCEPTED
+
+
+def test_a_leaf_hidden_behind_a_nested_record_is_examined_too(tmp_path):
+    # No problem: the leaves are assumptions; the one-valve leaf is used only by the
+    # nested record, whose unstated conclusion is all the outer step sees.
+    proof = _write(
+        tmp_path,
+        "proof.p",
+        SINGLE_VALVE.split("tff(one_valve")[0]
+        + "tff(a1, axiom, ! [X: valve, Y: valve] : X = Y).\n"
+        "tff(a2, axiom, s1 != s2).\n"
+        "tff(f3, plain, $false, inference(resolution, [status(thm)], "
+        "[inference(superposition, [status(thm)], [a1, a2]), a2])).\n",
+    )
+    report = check(proof)
+    assert report.verdict == UNDECIDED
+    outer = next(s for s in report.steps if s.name == "f3")
+    assert outer.outcome == UNPROVEN and outer.message.startswith("unsupported: equality over a sort")
+
+
+def test_an_unstated_nested_conclusion_as_premise_is_refused_with_several_sorts():
+    from checker.sorts import erasure_hazard
+    from formats.derivation import Inference, Location, Parent, Statement
+
+    here = Location("proof.p", 1, 1)
+    inner = Inference("superposition", "thm", (Parent("a1"), Parent("a2")))
+    outer = Inference("resolution", "thm", (inner, Parent("a2")))
+    claimed = Statement("f3", "plain", "tff", FALSUM, here, outer, frozenset())
+    stand_in = Statement("f3/1", "plain", "cnf", parse_formula("s1 != s1"), here, inner)
+    a2 = Statement("a2", "axiom", "tff", parse_formula("s1 != s2"), here, None, frozenset({"sensor"}))
+    several = frozenset({"valve", "sensor"})
+    assert erasure_hazard(claimed, outer, [stand_in, a2], several, {}).startswith(
+        "unsupported: equality over a sort that may not be monotone: a premise is the unstated conclusion"
+    )
+    assert erasure_hazard(claimed, outer, [stand_in, a2], frozenset({"sensor"}), {}) is None
