@@ -9,11 +9,12 @@ for the whole derivation at once.
 from __future__ import annotations
 
 from collections.abc import Iterable
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import Formula, symbols_of_formula
 from checker.plan import Step
+from checker.sorts import non_monotone_statements, sorts_of
 from formats.derivation import Document, Location
 
 Symbol = tuple[str, int]
@@ -40,6 +41,10 @@ class SymbolTable:
     children: dict[str, list[str]]
     introducers: dict[Symbol, list[str]]
     order: dict[str, int]
+    sorts: frozenset[str] = frozenset()
+    """the sorts of individuals of the problem and the derivation"""
+    non_monotone: dict[str, str] = field(default_factory=dict)
+    """problem statements with a naked variable in a positive equality (checker/sorts.py)"""
 
     def descendants(self, name: str) -> set[str]:
         found: set[str] = set()
@@ -117,6 +122,8 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
+        sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)]),
+        non_monotone_statements(problem.statements) if problem else {},
     )
 
 

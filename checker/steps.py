@@ -32,6 +32,7 @@ from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, 
 from checker.plan import Step
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
+from checker.sorts import arithmetic_sorts, erasure_hazard
 from checker.statuses import CONSEQUENCE_STATUSES
 from formats.derivation import Statement
 
@@ -69,10 +70,28 @@ def premise_names(step: Step) -> str:
 
 
 def check_inference(step: Step, parents: Sequence[Statement | None], context: StepContext) -> StepResult:
-    """The outcome of an inference step whose parent statements are ``parents``."""
-    inference = step.inference
-    assert inference is not None and step.statement is not None
+    """The outcome of an inference step whose parent statements are
+    ``parents``; typed steps only where erasing their sorts is sound, and
+    never refuted over arithmetic (checker/sorts.py)."""
+    assert step.inference is not None and step.statement is not None
     assert all(parent is not None for parent in parents), "the plan faults dangling parents; nested ones are stood in"
+    hazard = erasure_hazard(step.statement, step.inference, parents, context.symbols.sorts, context.symbols.non_monotone)
+    if hazard is not None:
+        return step_result(step, UNPROVEN, hazard, ("reason: unsupported_sorts",))
+    result = _check_untyped(step, parents, context)
+    arithmetic = arithmetic_sorts([step.statement, *parents])
+    if arithmetic and result.outcome in (REFUTED, UNPROVEN):
+        return step_result(
+            step, UNPROVEN,
+            f"unsupported: the step is over {', '.join(sorted(arithmetic))}, and arithmetic is read as "
+            f"uninterpreted symbols; with them the step {'does not hold' if result.outcome == REFUTED else 'was not shown'}",
+            ("reason: unsupported_arithmetic",),
+        )
+    return result
+
+
+def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContext) -> StepResult:
+    inference = step.inference
     claimed = step.statement.content
     premises = [parent.content for parent in parents]
     status = inference.status or "thm"

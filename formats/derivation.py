@@ -80,10 +80,13 @@ class Statement:
 
     name: str
     role: str
-    language: str  # "cnf" or "fof"
+    language: str  # "cnf", "fof", "tff" or "thf"
     content: Clause | Formula
     location: Location
     source: Inference | Origin | None = None
+    sorts: frozenset[str] | None = None
+    """for a typed statement (sorts erased), the sorts its terms and
+    variables have; None for an untyped one"""
 
 
 @dataclass(frozen=True, slots=True)

@@ -1,12 +1,15 @@
-"""Reader of the TPTP language (CNF and FOF): files, and single clauses,
-formulas and terms written as strings.
+"""Reader of the TPTP language (CNF, FOF, and TFF and THF where they are
+first-order): files, and single clauses, formulas and terms written as
+strings.
 
 The grammar (formats/tptp.lark) is loaded once; an inline transformer
 builds kernel objects during the LALR parse, so no parse tree is ever held
 and nesting depth costs no Python recursion.  A file is first cut into
 statements by formats/tptp_scan.py, which also skips a prover's log text
 around the derivation; each statement is parsed on its own and its errors
-are shifted back to the place in the file.
+are shifted back to the place in the file.  Typed statements are read
+into a small syntax tree, whose types formats/tptp_types.py checks and
+erases.
 """
 
 from __future__ import annotations
@@ -46,6 +49,24 @@ from formats.derivation import (
     UnreadableInput,
 )
 from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
+from formats.tptp_types import (
+    Call,
+    Connect,
+    Infix,
+    Not,
+    Quantify,
+    Refused,
+    Signature,
+    TypeAtom,
+    TypeFault,
+    TypeMapping,
+    TypeProduct,
+    Typing,
+    Var,
+    Word,
+    erase_sorts,
+    token_of,
+)
 
 ROLES = frozenset(
     (
@@ -259,8 +280,9 @@ class _Annotated:
     language: str
     name: str
     role: str
-    content: Clause | Formula
+    content: object  # a Clause or Formula; for tff and thf, a tptp_types syntax tree
     source: Inference | Origin | None
+    sorts: frozenset[str] | None = None
 
 
 @dataclass(frozen=True, slots=True)
@@ -422,6 +444,105 @@ class _Builder(Transformer):
     def cnf_annotated(self, name, role, clause, source=None):
         return _Annotated("cnf", name, role, clause, None if source is None else _source(source))
 
+    def tff_annotated(self, name, role, content, source=None):
+        return _Annotated("tff", name, role, content, None if source is None else _source(source))
+
+    def thf_annotated(self, name, role, content, source=None):
+        return _Annotated("thf", name, role, content, None if source is None else _source(source))
+
+    # TFF and THF: a syntax tree, checked and erased in formats/tptp_types.py
+    def thf_word(self, token):
+        return Word(_symbol_text(token), token)
+
+    def thf_quantifier_constant(self, token):
+        return Refused(f"the quantifier constant {token} (quantifying over a function) is not first-order", token)
+
+    def thf_connective_term(self, token):
+        return Refused(f"the connective ({token}) used as a term is not first-order", token)
+
+    def thf_variable_use(self, token):
+        return Var(str(token), token)
+
+    def thf_atomic_formula(self, word, arguments=None):
+        if arguments is None:
+            return word
+        return Call(word, tuple(arguments), word.token if isinstance(word, Word) else word.token)
+
+    thf_arguments = _appended
+
+    def thf_apply_formula(self, function, argument):
+        """``f @ a @ b`` as one application of ``f`` to both arguments,
+        however it is bracketed."""
+        if isinstance(function, Call):
+            return Call(function.head, function.arguments + (argument,), function.token)
+        return Call(function, (argument,), token_of(function))
+
+    def thf_unary_formula(self, body):
+        return Not(body)
+
+    def thf_defined_infix(self, left, relation, right):
+        return Infix(relation == "=", left, right, relation)
+
+    def thf_binary_pair(self, left, connective, right):
+        return Connect(connective, left, right)
+
+    def thf_or_formula(self, left, right):
+        return Connect(OR, left, right)
+
+    def thf_and_formula(self, left, right):
+        return Connect(AND, left, right)
+
+    def thf_quantifier(self, token):
+        return token
+
+    def thf_variable(self, token, declared=None):
+        return (str(token), declared, token)
+
+    thf_variable_list = _appended
+
+    def thf_quantified_formula(self, quantifier, variables, body):
+        return Quantify(str(quantifier), tuple(variables), body, quantifier)
+
+    def typed_symbol(self, token):
+        return token
+
+    def thf_atom_typing(self, symbol, declared=None):
+        if declared is None:  # "(" typing ")"
+            return symbol
+        return Typing(_symbol_text(symbol), declared, symbol)
+
+    def type_atom(self, token):
+        return TypeAtom(_symbol_text(token), token)
+
+    def type_application(self, token, arguments):
+        return Refused(f"the type constructor `{token}` (types with arguments) is not first-order", token)
+
+    type_arguments = _appended
+
+    def type_mapping(self, domain, result):
+        return TypeMapping(domain, result, _type_token(domain))
+
+    def type_xprod(self, left, right):
+        if isinstance(left, TypeProduct):
+            return TypeProduct(left.items + (right,), left.token)
+        return TypeProduct((left, right), _type_token(left))
+
+    def type_quantified(self, variables, body):
+        return Refused("polymorphic types (!>) are not first-order", variables[0][2])
+
+
+def _symbol_text(token: Token) -> str:
+    """A symbol as the fof reader names it: quotes dropped where the word
+    needs none."""
+    text = str(token)
+    if text[0] == "'" and _LOWER_WORD.fullmatch(text, 1, len(text) - 1):
+        return text[1:-1]
+    return text
+
+
+def _type_token(node) -> Token:
+    return node.token
+
 
 _PARSER = Lark(
     (Path(__file__).with_name("tptp.lark")).read_text(encoding="utf-8"),
@@ -444,6 +565,9 @@ _TERMINAL_WORDS = {
     "INTEGER": "an integer",
     "NUMBER": "a number",
     "$END": "the end of the text",
+    "QUANTIFIER_CONSTANT": "'!!', '??', '@@+', '@@-'",
+    "CONNECTIVE_TERM": "a connective in brackets",
+    "DEFINED_INFIX": "'=', '!='",
 }
 
 
@@ -482,17 +606,31 @@ def _parse(text: str, start: str, file: str, line: int, column: int, whole: str 
         return _PARSER.parse(text, start=start)
     except (UnexpectedCharacters, UnexpectedToken) as error:
         message, at_line, at_column = _explain(error)
+        if start == "tptp_input" and text.startswith(("tff", "thf")):
+            message += _TYPED_HINT
     except _Misread as error:
         message, at_line, at_column = error.message, error.token.line, error.token.column
+    raise _unreadable(message, at_line, at_column, text, file, line, column, whole)
+
+
+_TYPED_HINT = (
+    " (of tff and thf, only the first-order part is read: typed quantifiers, type declarations, "
+    "application by @; see the README)"
+)
+
+
+def _unreadable(
+    message: str, at_line: int, at_column: int, text: str, file: str, line: int, column: int, whole: str | None
+) -> UnreadableInput:
+    """The error at (at_line, at_column) of ``text``, which begins at (line,
+    column) of ``file``."""
     file_line = line + at_line - 1
     file_column = at_column + (column - 1 if at_line == 1 else 0)
     if whole is None:
         shown, shown_column = text.split("\n")[at_line - 1], at_column
     else:
         shown, shown_column = whole.split("\n")[file_line - 1], file_column
-    raise UnreadableInput(
-        message, Location(file, file_line, file_column), excerpt(shown, shown_column)
-    ) from None
+    return UnreadableInput(message, Location(file, file_line, file_column), excerpt(shown, shown_column))
 
 
 def _string_origin(where: Location | None) -> tuple[str, int, int]:
@@ -519,7 +657,10 @@ def parse_term(text: str, where: Location | None = None) -> Term:
 
 # ------------------------------------------------------------ files
 
-_UNSUPPORTED = frozenset(("tff", "thf", "tcf", "tpi"))
+_UNSUPPORTED = {
+    "tcf": "the typed clause language tcf is not read (write clauses as cnf, or typed formulas as tff)",
+    "tpi": "the process instruction language tpi is not read",
+}
 
 
 @dataclass(slots=True)
@@ -599,6 +740,7 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
     """Read one file's statements, expanding includes in place.  Open files
     form an explicit stack, which is also what finds include cycles."""
     notices: list[Notice] = []
+    signature = Signature()
     files = [path]
     root = _Frame(path, identity, text, scan(text, path), [])
     stack = [root]
@@ -622,11 +764,15 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
             continue
         if chunk.keyword in _UNSUPPORTED:
             raise UnreadableInput(
-                f"language not supported: {chunk.keyword} (only cnf and fof are read)",
+                f"unsupported: {_UNSUPPORTED[chunk.keyword]}",
                 location,
                 _excerpt_at(frame.text, location),
             )
         read = _parse(chunk.text, "tptp_input", frame.path, chunk.line, chunk.column, frame.text)
+        if isinstance(read, _Annotated) and read.language in ("tff", "thf"):
+            read = _typed(read, signature, chunk, frame)
+            if read is None:  # a type declaration
+                continue
         if isinstance(read, _Include):
             target = _included_path(
                 read.file_name, frame.path, include_dirs, location, frame.text
@@ -650,9 +796,29 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
             )
         else:
             frame.statements.append(
-                Statement(read.name, read.role, read.language, read.content, location, read.source)
+                Statement(read.name, read.role, read.language, read.content, location, read.source, read.sorts)
             )
     return Document(path, tuple(root.statements), tuple(notices), "tptp", tuple(files))
+
+
+def _typed(read: _Annotated, signature: Signature, chunk: StatementText, frame: _Frame) -> _Annotated | None:
+    """A tff or thf statement with its sorts checked and erased; a type
+    declaration goes into ``signature`` instead (None)."""
+    try:
+        if isinstance(read.content, Typing):
+            if read.role != "type":
+                raise TypeFault(f"a type declaration must have the role type, not {read.role}", read.content.token)
+            signature.declare(read.content)
+            return None
+        if read.role == "type":
+            raise TypeFault("a statement with the role type must declare a symbol (name: type)", token_of(read.content))
+        erased = erase_sorts(read.content, signature)
+    except TypeFault as fault:
+        at_line, at_column = (fault.token.line, fault.token.column) if fault.token is not None else (1, 1)
+        raise _unreadable(
+            fault.message, at_line, at_column, chunk.text, frame.path, chunk.line, chunk.column, frame.text
+        ) from None
+    return _Annotated(read.language, read.name, read.role, erased.formula, read.source, erased.sorts)
 
 
 def parse_tptp(text: str, path: str = "<string>", include_dirs: Sequence[str] = ()) -> Document:
