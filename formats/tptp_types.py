@@ -210,7 +210,7 @@ class Signature:
             )
         self.symbols[typing.symbol] = declared
 
-    def _sort(self, node) -> str | None:
+    def sort_of(self, node) -> str | None:
         """The sort an atomic type names (``$o`` included), None if the type
         is not atomic; an undeclared type name is an error."""
         if not isinstance(node, TypeAtom):
@@ -229,12 +229,12 @@ class Signature:
         while isinstance(node, TypeMapping):
             domain = node.domain.items if isinstance(node.domain, TypeProduct) else (node.domain,)
             for item in domain:
-                sort = self._sort(item)
+                sort = self.sort_of(item)
                 if sort is None or sort == BOOLEAN:
                     return SymbolType((), BOOLEAN, _higher_order_reason(item))
                 arguments.append(sort)
             node = node.result
-        result = self._sort(node)
+        result = self.sort_of(node)
         if result is None:
             return SymbolType((), BOOLEAN, _higher_order_reason(node))
         return SymbolType(tuple(arguments), result)
@@ -349,7 +349,7 @@ class _Eraser:
         for name, declared, token in node.variables:
             if isinstance(declared, Refused):
                 raise _unsupported(declared.what, declared.token)
-            sort = INDIVIDUALS if declared is None else self.signature._sort(declared)
+            sort = INDIVIDUALS if declared is None else self.signature.sort_of(declared)
             if sort == BOOLEAN:
                 raise _unsupported(f"quantification over $o (`{name}`) is not first-order", token)
             if sort is None:
