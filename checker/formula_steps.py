@@ -187,7 +187,11 @@ def _introduction(
         key=table.order.__getitem__,
     )
     premises = [*premises, *(as_formula(table.contents[leaf]) for leaf in leaves)]
-    new = {s for s in new if table.leaf_introducers.get(s, step.name) == step.name}
+    raw_premises = [*raw_premises, *(table.contents[leaf] for leaf in leaves)]
+    new = set().union(*(new_symbols(claim, raw_premises) for claim in claims))
+    if step.is_leaf:
+        # An introduced leaf introduces only what the problem does not have.
+        new = {s for s in new if table.leaf_introducers.get(s) == step.name}
     cited = f" and `{'`, `'.join(leaves)}`, which define{'s' if len(leaves) == 1 else ''} some of its symbols" if leaves else ""
     together = ""
     if len(claims) > 1:
