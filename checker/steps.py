@@ -146,8 +146,10 @@ def _check_with_new_symbols(
     must be an introduction.  A status that claims more than an introduction
     (``thm``) is not held against a sound introduction; where neither
     reading is shown, it is ``unproven``, never refuted by the consequence
-    check alone; and when a structural fault of the introduction reading
-    is all there is, it stands only if the step is not a consequence."""
+    check alone; and a structural fault of the introduction reading stands
+    only if the step is shown not to be a consequence.  A step that claims
+    to introduce (``esa``) is judged as an introduction only: Skolemizing
+    the wrong quantifier is a fault even where the result happens to follow."""
     formulas = [as_formula(p) for p in premises]
     consequence = None
     if status in CONSEQUENCE_STATUSES:
@@ -155,13 +157,7 @@ def _check_with_new_symbols(
         if consequence.outcome == RECONSTRUCTED:
             return consequence
     introduction = check_introduction(step, formulas, claimed, premises, context.symbols, context.limits)
-    if introduction.outcome != FAILED:
-        return introduction
-    if consequence is None:
-        consequence = check_consequence(step, formulas, as_formula(claimed), context.limits)
-    if consequence.outcome == RECONSTRUCTED:
-        return consequence
-    if consequence.outcome == REFUTED:
+    if introduction.outcome != FAILED or consequence is None or consequence.outcome == REFUTED:
         return introduction
     return step_result(
         step, UNPROVEN,

@@ -150,6 +150,11 @@ def witness_readings(
     (the kernel's Skolemization; None when it refuses).  At most ``bound``
     choices are explored."""
     uses = {(use.symbol, use.arity): use for use in _uses(conclusion, new)}
+    predicates = sorted(new - uses.keys())
+    if predicates:
+        name = f"{predicates[0][0]}/{predicates[0][1]}"
+        message = f"new symbol `{name}` is not applied as a function, and only a function can witness a quantifier"
+        return Readings((), True, Misfit(predicates[0], "no_quantifier", message))
     rank = {symbol: number for number, symbol in enumerate(uses)}
     found: list[tuple[Witnessing, ...]] = []
     short: list[tuple[Symbol, Formula, list[Term]]] = []
@@ -199,14 +204,20 @@ def _misfit(new: set[Symbol], uses: dict[Symbol, Term], short: list, improper: F
     or too few quantifiers."""
     if short:
         symbol, quantifier, free_in_order = short[0]
-        missing = ", ".join(v.symbol for v in free_in_order)
-        return Misfit(
-            symbol,
-            "missing_dependency",
-            f"new symbol `{symbol[0]}/{symbol[1]}` takes {symbol[1]} argument{'s' if symbol[1] != 1 else ''}, "
-            f"too few to witness `{quantifier}`, which depends on {missing}, and no other pairing of the new "
-            "symbols with quantifiers fits",
-        )
+        use = uses.get(symbol)
+        if use is not None and set(use.arguments) <= set(free_in_order):
+            missing = [v.symbol for v in free_in_order if v not in use.arguments]
+            verb = "occurs" if len(missing) == 1 else "occur"
+            message = (
+                f"Skolem term `{use}` for `{quantifier.variables[0]}` does not depend on {', '.join(missing)}, "
+                f"which {verb} free in `{quantifier}`"
+            )
+        else:
+            message = (
+                f"new symbol `{symbol[0]}/{symbol[1]}` takes {symbol[1]} argument{'s' if symbol[1] != 1 else ''}, "
+                f"too few to witness `{quantifier}`, which depends on {', '.join(v.symbol for v in free_in_order)}"
+            )
+        return Misfit(symbol, "missing_dependency", message + ", and no other pairing of the new symbols with quantifiers fits")
     symbol = next(iter(uses), None) or sorted(new)[0]
     name = f"{symbol[0]}/{symbol[1]}"
     if improper is not None:

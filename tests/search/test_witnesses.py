@@ -75,7 +75,7 @@ def test_symbols_that_fit_no_quantifier_are_misfits():
     negative = readings([parse_formula("~ (? [X] : p(X))")], parse_clause("~ p(sk)"), {("sk", 0)})
     assert negative.misfit.reason == "wrong_polarity"
     short = readings([parse_formula("! [X] : ? [Y] : r(X, Y)")], parse_clause("r(X, sk)"), {("sk", 0)})
-    assert short.misfit.reason == "missing_dependency" and "depends on X" in short.misfit.message
+    assert short.misfit.reason == "missing_dependency" and "does not depend on X" in short.misfit.message
     # Two symbols, one quantifier: no pairing gives each a quantifier of its own.
     shared = readings([parse_formula("? [Y] : r(Y)")], parse_formula("r(a1) & r(a2)"), {("a1", 0), ("a2", 0)})
     assert shared.found == () and shared.exhaustive
