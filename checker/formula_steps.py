@@ -157,11 +157,20 @@ def check_introduction(
         # The earlier steps do not hold together by themselves: the fault
         # is theirs, reported there.
         return alone
+    others = ", ".join(f"`{p}`" for p in earlier)
+    details = tuple(line for line in together.details if not line.startswith("reason: "))
+    if together.outcome != REFUTED:
+        return step_result(
+            step, UNPROVEN,
+            f"holds by itself, but was not shown to hold together with {others}, which introduce the same symbols "
+            "from the same premises, within the search bounds",
+            details,
+        )
     return step_result(
         step, FAILED,
-        f"holds by itself, but not together with {', '.join(f'`{p}`' for p in earlier)}, which introduce"
-        " the same symbols from the same premises: a symbol may witness only one quantifier",
-        ("reason: witness_reused", *(line for line in together.details if not line.startswith("reason: "))),
+        f"holds by itself, but not together with {others}, which introduce the same symbols from the same "
+        "premises: under every pairing, a symbol would witness two quantifiers",
+        ("reason: witness_reused", *details),
     )
 
 
@@ -211,11 +220,21 @@ def _introduction(
         return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
     replayed = [_replay(premises, reading) for reading in readings.found]
     for skolemized in replayed:
-        if any(alpha_equivalent(p, conclusion) for p in skolemized):
-            return step_result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a Skolemized premise")
-        length = _refutation_length(skolemized, conclusion, limits)
-        if length is not None:
-            return step_result(step, RECONSTRUCTED, f"{what}: kernel replayed a refutation in {length} inferences")
+        # Each claim from the same Skolemized premises: then so does their
+        # conjunction, at the cost of several small searches, not one large.
+        lengths = []
+        for claim in claims:
+            wanted = as_formula(claim)
+            if any(alpha_equivalent(p, wanted) for p in skolemized):
+                lengths.append(0)
+                continue
+            lengths.append(_refutation_length(skolemized, wanted, limits))
+            if lengths[-1] is None:
+                break
+        if None not in lengths:
+            how = "alpha-equivalent to a Skolemized premise" if not any(lengths) else (
+                f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences")
+            return step_result(step, RECONSTRUCTED, f"{what}: {how}")
     # Say which quantifier each symbol was taken to witness: that pairing is
     # part of what did not hold.
     pairing = [f"Skolem term `{w.witness}` for `{w.bound}` of `{w.quantifier}`" for w in readings.found[0]]
