@@ -219,7 +219,14 @@ def _introduction(
             return step_result(step, FAILED, readings.misfit.message, (f"reason: {readings.misfit.reason}",))
         return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
     replayed = [_replay(premises, reading) for reading in readings.found]
-    for skolemized in replayed:
+    models: list[list[str] | None] = []
+    for number, skolemized in enumerate(replayed):
+        # The likeliest pairing is searched for a refutation first; for the
+        # others a counter-model (cheap to look for) first spares the search.
+        if number > 0:
+            models.append(_countermodel(skolemized, conclusion))
+            if models[-1] is not None:
+                continue
         # Each claim from the same Skolemized premises: then so does their
         # conjunction, at the cost of several small searches, not one large.
         lengths = []
@@ -238,7 +245,10 @@ def _introduction(
     # Say which quantifier each symbol was taken to witness: that pairing is
     # part of what did not hold.
     pairing = [f"Skolem term `{w.witness}` for `{w.bound}` of `{w.quantifier}`" for w in readings.found[0]]
-    models = [_countermodel(skolemized, conclusion) for skolemized in replayed] if readings.exhaustive else [None]
+    if readings.exhaustive:
+        models.insert(0, _countermodel(replayed[0], conclusion))
+    else:
+        models = [None]
     if all(model is not None for model in models):
         count = len(models)
         result = step_result(
