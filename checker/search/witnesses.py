@@ -218,7 +218,7 @@ def _misfit(new: set[Symbol], uses: dict[Symbol, Term], short: list, improper: F
                 f"too few to witness `{quantifier}`, which depends on {', '.join(v.symbol for v in free_in_order)}"
             )
         return Misfit(symbol, "missing_dependency", message + ", and no other pairing of the new symbols with quantifiers fits")
-    symbol = next(iter(uses), None) or sorted(new)[0]
+    symbol = next(iter(uses), None) or min(new)
     name = f"{symbol[0]}/{symbol[1]}"
     if improper is not None:
         return Misfit(

@@ -31,9 +31,8 @@ def _derivations() -> list[Path]:
     axiom files) and JSON Lines certificates."""
     found = []
     for path in sorted(FIXTURES.rglob("*")):
-        if path.suffix == ".jsonl":
-            found.append(path)
-        elif path.suffix == ".p" and path.name != "problem.p" and not path.name.endswith("_problem.p"):
+        problem = path.name == "problem.p" or path.name.endswith("_problem.p")
+        if path.suffix == ".jsonl" or (path.suffix == ".p" and not problem):
             found.append(path)
     return found
 

@@ -76,13 +76,15 @@ def test_a_thm_step_whose_witness_forgets_a_dependency_fails(tmp_path):
         tmp_path,
         "cnf(c2, plain, ~ site(X0) | guards(sK0(north), X0), inference(cnf_transformation, [status(thm)], [sites_have_gates])).",
     )
-    # sK0/1 applied to a constant: not a Skolem term over the site variable.
+    # sK0/1 applied to a constant: one gate for every site.  `north` is not
+    # in the premise either, and a problem's symbol is never fresh.
     assert report.verdict != ACCEPTED
-    assert report.first_failure.name == "c2"
+    assert report.first_failure.name == "c2" and steps["c2"].outcome == FAILED
+    assert "reason: not_fresh" in steps["c2"].details
 
 
 def test_an_esa_step_with_no_quantifier_to_witness_is_failed(tmp_path):
-    report, steps = run(
+    _, steps = run(
         tmp_path,
         "cnf(c2, plain, ~ site(X0) | guards(sK0(X0), X0), inference(cnf_transformation, [status(thm)], [sites_have_gates])).\n"
         "cnf(c7, plain, ~ logged(sK9), inference(skolemize, [status(esa)], [all_logged])).",
