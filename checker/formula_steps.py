@@ -190,17 +190,17 @@ def _introduction(
     for other in claims[1:]:
         conclusion = binary(AND, conclusion, as_formula(other))
     new = set().union(*(new_symbols(claim, raw_premises) for claim in claims))
-    # A leaf never vouches for itself.
+    # A leaf never vouches for itself nor leans on another leaf.
     leaves = sorted(
         {table.leaf_introducers[s] for s in new if table.leaf_introducers.get(s, step.name) != step.name},
         key=table.order.__getitem__,
-    )
+    ) if not step.is_leaf else []
     premises = [*premises, *(as_formula(table.contents[leaf]) for leaf in leaves)]
     raw_premises = [*raw_premises, *(table.contents[leaf] for leaf in leaves)]
     new = set().union(*(new_symbols(claim, raw_premises) for claim in claims))
     if step.is_leaf:
         # An introduced leaf introduces only what the problem does not have.
-        new = {s for s in new if table.leaf_introducers.get(s) == step.name}
+        new = {s for s in new if s in table.leaf_introducers}
     cited = f" and `{'`, `'.join(leaves)}`, which define{'s' if len(leaves) == 1 else ''} some of its symbols" if leaves else ""
     together = ""
     if len(claims) > 1:

@@ -65,6 +65,8 @@ class SymbolTable:
         conversion writes each clause of one Skolemized formula as a step of
         its own.  Their claims hold together or not at all, so they are
         checked as one introduction."""
+        if not self.parents.get(step):
+            return []  # leaves introduce alone
         group = {step}
         symbols = set(new_symbols)
         pending = list(symbols)

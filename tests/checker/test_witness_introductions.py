@@ -159,3 +159,21 @@ def test_clause_form_siblings_must_agree_on_what_a_symbol_witnesses(tmp_path):
     assert report.first_failure.name == "c8"
     assert steps["c8"].outcome != RECONSTRUCTED
     assert report.verdict != ACCEPTED
+
+
+def test_two_introduced_leaves_never_share_a_symbol(tmp_path):
+    # Two axioms of choice for sK0 (each written with its instance's
+    # conjuncts swapped, so read as the Skolemization of `Q => Q`): one says
+    # sK0(X0) is a gate guarding X0, the other that it is a logged site.
+    # Each alone is sound; together they are not, and the second is blamed.
+    report, steps = run(
+        tmp_path,
+        "fof(ch1, plain, ! [X0] : ((? [X1] : (gate(X1) & guards(X1, X0))) => (guards(sK0(X0), X0) & gate(sK0(X0)))), "
+        "introduced(choice_axiom, [])).\n"
+        "fof(ch2, plain, ! [X0] : ((? [X1] : (site(X1) & logged(X1))) => (logged(sK0(X0)) & site(sK0(X0)))), "
+        "introduced(choice_axiom, [])).\n"
+        "cnf(c2, plain, ~ site(X0) | guards(sK0(X0), X0), inference(cnf_transformation, [status(thm)], [sites_have_gates])).",
+    )
+    assert steps["ch1"].outcome == RECONSTRUCTED
+    assert steps["ch2"].outcome == FAILED and "reason: not_fresh" in steps["ch2"].details
+    assert report.verdict != ACCEPTED
