@@ -19,11 +19,13 @@ from checker.kernel.clauses import Clause
 from checker.kernel.entailment import check_entailment
 from checker.kernel.failure import Failure
 from checker.kernel.formulas import (
+    AND,
     EXISTS,
     FORALL,
     IMPLIES,
     Formula,
     alpha_equivalent,
+    binary,
     formula_of_clause,
     negation,
     subformulas_with_polarity,
@@ -37,7 +39,7 @@ from checker.search.entailment import find_entailment
 from checker.search.equivalences import has_equivalence, without_equivalences
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import SearchLimits, reconstruct
-from checker.search.witnesses import Misfit, matching_witnesses, next_witness
+from checker.search.witnesses import Witnessing, matching_witnesses, witness_readings
 from formats.derivation import Origin
 
 
@@ -71,24 +73,59 @@ def check_consequence(
     refutation; if neither is found, a kernel-confirmed counter-model."""
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
         return step_result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
-    chain = find_entailment(premises, conclusion, limits)
-    if chain is not None:
-        failure = check_entailment(premises, conclusion, chain)
-        if failure is None:
-            return step_result(
-                step, RECONSTRUCTED,
-                f"{what}: kernel replayed a refutation of premises and negated conclusion in "
-                f"{len(chain.steps)} inference{'s' if len(chain.steps) != 1 else ''}",
-            )
-    model = find_countermodel(list(premises), conclusion)
-    if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
+    length = _refutation_length(premises, conclusion, limits)
+    if length is not None:
+        return step_result(
+            step, RECONSTRUCTED,
+            f"{what}: kernel replayed a refutation of premises and negated conclusion in "
+            f"{length} inference{'s' if length != 1 else ''}",
+        )
+    model = _countermodel(premises, conclusion)
+    if model is not None:
         return step_result(
             step,
             REFUTED,
             f"counter-model: the premises are true and the conclusion false (claimed: {what})",
-            ("reason: countermodel", *render_countermodel(model, list(premises), conclusion).splitlines()),
+            ("reason: countermodel", *model),
         )
     return step_result(step, UNPROVEN, f"not shown within the search bounds (claimed: {what})")
+
+
+def _refutation_length(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> int | None:
+    """The length of a kernel-replayed refutation of premises and negated
+    conclusion (cited axioms of choice applied first), or None."""
+    premises = _with_choice_instances(premises)
+    chain = find_entailment(premises, conclusion, limits)
+    if chain is not None and check_entailment(premises, conclusion, chain) is None:
+        return len(chain.steps)
+    return None
+
+
+def _countermodel(premises: Sequence[Formula], conclusion: Formula) -> list[str] | None:
+    """A kernel-confirmed counter-model, rendered, or None."""
+    model = find_countermodel(list(premises), conclusion)
+    if model is not None and confirm_countermodel(model, list(premises), conclusion) is None:
+        return render_countermodel(model, list(premises), conclusion).splitlines()
+    return None
+
+
+def _with_choice_instances(premises: Sequence[Formula]) -> list[Formula]:
+    """The premises and, for each axiom of choice among them (confirmed by
+    the kernel), the other premises with its quantifier replaced by its
+    witnesses.  Under the axiom the quantified formula and its instance are
+    equivalent, so these follow from the premises; they spare the search a
+    long detour through the axiom's clauses."""
+    extra: list[Formula] = []
+    for axiom in premises:
+        parts = _choice_parts(axiom)
+        if parts is None or check_choice_axiom(axiom, parts[1]) is not None:
+            continue
+        quantifier, witnesses = parts
+        for premise in premises:
+            replaced = skolemize(premise, quantifier, witnesses) if premise is not axiom else None
+            if isinstance(replaced, Formula):
+                extra.append(replaced)
+    return [*premises, *extra]
 
 
 def check_introduction(
@@ -101,35 +138,164 @@ def check_introduction(
 ) -> StepResult:
     """A step with new symbols: fresh, each the witness of a quantifier that
     Skolemization may replace, and the step follows from the premises so
-    Skolemized (built by the kernel, outermost quantifier first)."""
-    new = new_symbols(claimed, raw_premises)
-    not_fresh = table.freshness_failure(step.name, new)
+    Skolemized (built by the kernel, outermost quantifier first).
+
+    Steps with the same parents that introduce a symbol together (the
+    clauses of one Skolemized formula) must hold together: each is checked
+    with the claims of the earlier ones, so the last checks them all.  A
+    symbol an introduced leaf (an axiom of choice) defines is that leaf's,
+    and the leaf joins the premises."""
+    peers = table.co_introducers(step.name, new_symbols(claimed, raw_premises))
+    earlier = [peer for peer in peers if table.order[peer] < table.order[step.name]]
+    together = _introduction(step, premises, [claimed, *(table.contents[p] for p in earlier)], raw_premises, peers, table, limits)
+    if together.outcome == RECONSTRUCTED or not earlier:
+        return together
+    alone = _introduction(step, premises, [claimed], raw_premises, peers, table, limits)
+    if alone.outcome != RECONSTRUCTED:
+        return alone
+    before = _introduction(step, premises, [table.contents[p] for p in earlier], raw_premises, peers, table, limits)
+    if before.outcome != RECONSTRUCTED:
+        # The earlier steps do not hold together by themselves: the fault
+        # is theirs, reported there.
+        return alone
+    others = ", ".join(f"`{p}`" for p in earlier)
+    details = tuple(line for line in together.details if not line.startswith("reason: "))
+    if together.outcome != REFUTED:
+        return step_result(
+            step, UNPROVEN,
+            f"holds by itself, but was not shown to hold together with {others}, which introduce the same symbols "
+            "from the same premises, within the search bounds",
+            details,
+        )
+    return step_result(
+        step, FAILED,
+        f"holds by itself, but not together with {others}, which introduce the same symbols from the same "
+        "premises: under every pairing, a symbol would witness two quantifiers",
+        ("reason: witness_reused", *details),
+    )
+
+
+def _introduction(
+    step: Step,
+    premises: Sequence[Formula],
+    claims: Sequence[Clause | Formula],
+    raw_premises: Sequence[Clause | Formula],
+    peers: Sequence[str],
+    table: SymbolTable,
+    limits: SearchLimits,
+) -> StepResult:
+    """The conjunction of ``claims`` as an introduction.  Which quantifier
+    each symbol witnesses is searched for; a counter-model refutes the step
+    only if it refutes every pairing there is."""
+    conclusion = as_formula(claims[0])
+    for other in claims[1:]:
+        conclusion = binary(AND, conclusion, as_formula(other))
+    new = set().union(*(new_symbols(claim, raw_premises) for claim in claims))
+    # A leaf never vouches for itself nor leans on another leaf.
+    leaves = sorted(
+        {table.leaf_introducers[s] for s in new if table.leaf_introducers.get(s, step.name) != step.name},
+        key=table.order.__getitem__,
+    ) if not step.is_leaf else []
+    premises = [*premises, *(as_formula(table.contents[leaf]) for leaf in leaves)]
+    raw_premises = [*raw_premises, *(table.contents[leaf] for leaf in leaves)]
+    new = set().union(*(new_symbols(claim, raw_premises) for claim in claims))
+    if step.is_leaf:
+        # An introduced leaf introduces only what the problem does not have.
+        new = {s for s in new if s in table.leaf_introducers}
+    cited = f" and `{'`, `'.join(leaves)}`, which define{'s' if len(leaves) == 1 else ''} some of its symbols" if leaves else ""
+    together = ""
+    if len(claims) > 1:
+        together = f" (with the {len(claims) - 1} earlier step{'s' if len(claims) > 2 else ''} introducing them)"
+    not_fresh = table.freshness_failure(step.name, new, peers)
     if not_fresh:
         return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
-    skolemized = [_equivalences_written_out(premise, limits) for premise in premises]
-    remaining = set(new)
-    witnessed: list[str] = []
-    while remaining:
-        proposal = next_witness(skolemized, claimed, remaining)
-        if isinstance(proposal, Misfit):
-            return step_result(step, FAILED, proposal.message, (f"reason: {proposal.reason}",))
-        replaced = skolemize(skolemized[proposal.premise], proposal.quantifier, {proposal.bound: proposal.witness})
-        if isinstance(replaced, Failure):
-            return step_result(step, FAILED, replaced.message, (f"reason: {replaced.reason}",))
-        skolemized[proposal.premise] = replaced
-        remaining.discard((proposal.witness.symbol, proposal.witness.arity))
-        witnessed.append(f"Skolem term `{proposal.witness}` for `{proposal.bound}` of `{proposal.quantifier}`")
+    if not new:
+        result = check_consequence(step, premises, conclusion, limits, what=f"follows from its premises{cited}{together}")
+        return _not_refuted_by_uncited(result, leaves)
     introduced = ", ".join(describe_symbol(s) for s in sorted(new))
-    result = check_consequence(
-        step, skolemized, as_formula(claimed), limits,
-        what=f"Skolemization introducing {introduced}: follows from its Skolemized premises",
-    )
-    if result.outcome == RECONSTRUCTED:
-        return result
+    what = f"Skolemization introducing {introduced}{together}: follows from its Skolemized premises{cited}"
+    premises = [_equivalences_written_out(premise, limits) for premise in premises]
+    readings = witness_readings(premises, conclusion, new, limits.witness_readings, _kernel_skolemize)
+    if not readings.found:
+        if readings.misfit is not None:
+            return step_result(step, FAILED, readings.misfit.message, (f"reason: {readings.misfit.reason}",))
+        return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
+    replayed = [_replay(premises, reading) for reading in readings.found]
+    models: list[list[str] | None] = []
+    for number, skolemized in enumerate(replayed):
+        # The likeliest pairing is searched for a refutation first; for the
+        # others a counter-model (cheap to look for) first spares the search.
+        if number > 0:
+            models.append(_countermodel(skolemized, conclusion))
+            if models[-1] is not None:
+                continue
+        # Each claim from the same Skolemized premises: then so does their
+        # conjunction, at the cost of several small searches, not one large.
+        lengths = []
+        for claim in claims:
+            wanted = as_formula(claim)
+            if any(alpha_equivalent(p, wanted) for p in skolemized):
+                lengths.append(0)
+                continue
+            lengths.append(_refutation_length(skolemized, wanted, limits))
+            if lengths[-1] is None:
+                break
+        if None not in lengths:
+            how = "alpha-equivalent to a Skolemized premise" if not any(lengths) else (
+                f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences")
+            return step_result(step, RECONSTRUCTED, f"{what}: {how}")
     # Say which quantifier each symbol was taken to witness: that pairing is
     # part of what did not hold.
-    return StepResult(result.name, result.outcome, result.rule, result.message, result.location,
-                      (*result.details, *witnessed))
+    pairing = [f"Skolem term `{w.witness}` for `{w.bound}` of `{w.quantifier}`" for w in readings.found[0]]
+    if readings.exhaustive:
+        models.insert(0, _countermodel(replayed[0], conclusion))
+    else:
+        models = [None]
+    if all(model is not None for model in models):
+        count = len(models)
+        result = step_result(
+            step, REFUTED,
+            f"counter-model: under {f'each of the {count} pairings' if count > 1 else 'the only pairing'} of "
+            f"new symbols with quantifiers, the Skolemized premises are true and the conclusion false (claimed: {what})",
+            ("reason: countermodel", *models[0], *pairing),
+        )
+        return _not_refuted_by_uncited(result, leaves)
+    tried = f"{len(readings.found)} pairing{'s' if len(readings.found) != 1 else ''} of new symbols with quantifiers"
+    return step_result(
+        step, UNPROVEN,
+        f"not shown within the search bounds under {tried}"
+        f"{'' if readings.exhaustive else ' (not every pairing was tried)'} (claimed: {what})",
+        tuple(pairing),
+    )
+
+
+def _not_refuted_by_uncited(result: StepResult, leaves: Sequence[str]) -> StepResult:
+    """A counter-model found with introduced leaves the step does not cite
+    refutes a reading of the step, not the step: it might introduce the
+    symbols jointly with the leaf in a way the leaf allows."""
+    if result.outcome != REFUTED or not leaves:
+        return result
+    return StepResult(
+        result.name, UNPROVEN, result.rule,
+        f"does not follow from its premises with `{'`, `'.join(leaves)}`, which it does not cite; "
+        f"not refuted, since it might introduce their symbols itself ({result.message})",
+        result.location, tuple(line for line in result.details if not line.startswith("reason: ")),
+    )
+
+
+def _kernel_skolemize(premise: Formula, witnessing: Witnessing) -> Formula | None:
+    replaced = skolemize(premise, witnessing.quantifier, {witnessing.bound: witnessing.witness})
+    return None if isinstance(replaced, Failure) else replaced
+
+
+def _replay(premises: Sequence[Formula], reading: Sequence[Witnessing]) -> list[Formula]:
+    """The premises Skolemized by the kernel along a proposed pairing."""
+    skolemized = list(premises)
+    for witnessing in reading:
+        replaced = skolemize(skolemized[witnessing.premise], witnessing.quantifier, {witnessing.bound: witnessing.witness})
+        assert not isinstance(replaced, Failure), "the search proposes only what the kernel Skolemized"
+        skolemized[witnessing.premise] = replaced
+    return skolemized
 
 
 def _equivalences_written_out(premise: Formula, limits: SearchLimits) -> Formula:
@@ -158,12 +324,18 @@ def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits
         choice = _choice_parts(universal_closure(content))
         if choice is not None:
             return check_choice_leaf(step, universal_closure(content), *choice, table)
+        quantifier = _choice_quantifier(universal_closure(content))
+        if quantifier is not None and new_symbols(content, [quantifier]):
+            # Shaped like an axiom of choice but not read as one: it is the
+            # Skolemization of `Q => Q` or it is not sound.
+            tautology = universal_closure(binary(IMPLIES, quantifier, quantifier))
+            return check_introduction(step, [tautology], content, [tautology], table, limits)
     return check_valid_leaf(step, limits)
 
 
-def _choice_parts(axiom: Formula) -> tuple[Formula, dict] | None:
-    """The quantifier of what looks like a Skolem axiom, and the witnesses
-    found where its bound variables stand in the instance (untrusted)."""
+def _choice_quantifier(axiom: Formula) -> Formula | None:
+    """The quantified formula a Skolem axiom is about: the existential
+    antecedent or the universal consequent of its implication."""
     body = axiom
     while body.connective == FORALL:
         body = body.arguments[0]
@@ -171,11 +343,20 @@ def _choice_parts(axiom: Formula) -> tuple[Formula, dict] | None:
         return None
     antecedent, consequent = body.arguments
     if antecedent.connective == EXISTS:
-        quantifier, instance = antecedent, consequent
-    elif consequent.connective == FORALL:
-        quantifier, instance = consequent, antecedent
-    else:
+        return antecedent
+    return consequent if consequent.connective == FORALL else None
+
+
+def _choice_parts(axiom: Formula) -> tuple[Formula, dict] | None:
+    """The quantifier of what looks like a Skolem axiom, and the witnesses
+    found where its bound variables stand in the instance (untrusted)."""
+    quantifier = _choice_quantifier(axiom)
+    if quantifier is None:
         return None
+    body = axiom
+    while body.connective == FORALL:
+        body = body.arguments[0]
+    instance = body.arguments[1] if quantifier is body.arguments[0] else body.arguments[0]
     witnesses = matching_witnesses(quantifier, instance)
     return (quantifier, witnesses) if witnesses else None
 

@@ -41,6 +41,14 @@ class SymbolTable:
     children: dict[str, list[str]]
     introducers: dict[Symbol, list[str]]
     order: dict[str, int]
+    parents: dict[str, frozenset[str]]
+    contents: dict[str, Clause | Formula]
+    leaf_introducers: dict[Symbol, str]
+    """the first introduced leaf (an axiom of choice, a definition) in which
+    each symbol occurs: a step using the symbol without citing the leaf
+    is judged with the leaf as an extra premise, not as introducing it"""
+    implicit_citations: dict[str, list[str]]
+    """per such leaf, the steps that use its symbols without citing it"""
     sorts: frozenset[str] = frozenset()
     """the sorts of individuals of the problem and the derivation"""
     non_monotone: dict[str, str] = field(default_factory=dict)
@@ -56,10 +64,35 @@ class SymbolTable:
                     stack.append(child)
         return found
 
-    def freshness_failure(self, step: str, new_symbols: Iterable[Symbol]) -> str | None:
+    def co_introducers(self, step: str, new_symbols: Iterable[Symbol]) -> list[str]:
+        """The other steps with exactly ``step``'s parents that introduce one
+        of its new symbols, and theirs in turn, in checking order: clause-form
+        conversion writes each clause of one Skolemized formula as a step of
+        its own.  Their claims hold together or not at all, so they are
+        checked as one introduction."""
+        if not self.parents.get(step):
+            return []  # leaves introduce alone
+        group = {step}
+        symbols = set(new_symbols)
+        pending = list(symbols)
+        while pending:
+            for other in self.introducers.get(pending.pop(), ()):
+                if other not in group and self.parents.get(other) == self.parents.get(step):
+                    group.add(other)
+                    added = set(self.introducers_of(other)) - symbols
+                    symbols |= added
+                    pending.extend(added)
+        return sorted(group - {step}, key=self.order.__getitem__)
+
+    def introducers_of(self, step: str) -> list[Symbol]:
+        return [symbol for symbol, steps in self.introducers.items() if step in steps]
+
+    def freshness_failure(self, step: str, new_symbols: Iterable[Symbol], peers: Iterable[str] = ()) -> str | None:
         """Why one of ``new_symbols`` introduced by ``step`` is not fresh, or
         None.  When two steps introduce a symbol, the later one (in checking
-        order) is the one at fault, and the earlier is judged without it."""
+        order) is the one at fault, and the earlier is judged without it;
+        ``peers``, introducing it together with ``step``, are no fault."""
+        peers = set(peers)
         for symbol in sorted(new_symbols):
             if symbol in self.problem:
                 name, location = self.problem[symbol]
@@ -68,15 +101,17 @@ class SymbolTable:
                     f"it occurs in the problem's `{name}` at {location}"
                 )
             introducers = self.introducers.get(symbol, [])
-            earlier = [s for s in introducers if self.order[s] < self.order[step]]
+            earlier = [s for s in introducers if self.order[s] < self.order[step] and s not in peers]
             if earlier:
                 return (
                     f"new symbol `{describe_symbol(symbol)}` (in no parent) is not fresh: it was already "
                     f"introduced by step `{earlier[0]}` at {self.locations[earlier[0]]}"
                 )
             allowed = self.descendants(step) | {step}
+            for user in self.implicit_citations.get(step, ()):
+                allowed |= self.descendants(user) | {user}
             for later in introducers:
-                if self.order[later] > self.order[step]:
+                if self.order[later] > self.order[step] or later in peers:
                     allowed |= self.descendants(later) | {later}
             for name, symbols in self.steps.items():
                 if name not in allowed and symbol in symbols:
@@ -107,14 +142,23 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         inherited_by[s.name] = set().union(*(handed_on.get(p, set()) for p in s.parents))
         handed_on[s.name] = step_symbols[s.name] if s.statement is not None else inherited_by[s.name]
     introducers: dict[Symbol, list[str]] = {}
+    leaf_introducers: dict[Symbol, str] = {}
+    implicit_citations: dict[str, list[str]] = {}
+    for s in steps:
+        if s.statement is not None and s.is_leaf and _is_introduction(s):
+            for symbol in new_symbols_of(s.statement.content) - problem_symbols.keys():
+                leaf_introducers.setdefault(symbol, s.name)
     for s in steps:
         if s.statement is None:
             continue
         inherited = inherited_by[s.name]
         if s.is_leaf and not _is_introduction(s):
             continue
-        for symbol in new_symbols(s.statement.content, ()) - inherited:
-            introducers.setdefault(symbol, []).append(s.name)
+        for symbol in new_symbols_of(s.statement.content) - inherited:
+            if s.is_leaf or symbol not in leaf_introducers:
+                introducers.setdefault(symbol, []).append(s.name)
+            else:
+                implicit_citations.setdefault(leaf_introducers[symbol], []).append(s.name)
     return SymbolTable(
         problem_symbols,
         step_symbols,
@@ -122,6 +166,10 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
+        {s.name: frozenset(s.parents) for s in steps},
+        {s.name: s.statement.content for s in steps if s.statement is not None},
+        leaf_introducers,
+        implicit_citations,
         sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)]),
         non_monotone_statements(problem.statements) if problem else {},
     )
@@ -132,10 +180,15 @@ def _is_introduction(step: Step) -> bool:
     return getattr(source, "kind", None) == "introduced"
 
 
+def new_symbols_of(content: Clause | Formula) -> set[Symbol]:
+    """The symbols a statement could introduce: equality and TPTP's defined
+    ``$`` symbols are interpreted, never introduced."""
+    return {s for s in content_symbols(content) if s[0] != "=" and not s[0].startswith("$")}
+
+
 def new_symbols(claimed: Clause | Formula, premises: Iterable[Clause | Formula]) -> set[Symbol]:
-    """Symbols of the claimed statement that no premise has; equality and
-    TPTP's defined ``$`` symbols are interpreted, never introduced."""
-    found = {s for s in content_symbols(claimed) if s[0] != "=" and not s[0].startswith("$")}
+    """Symbols of the claimed statement that no premise has."""
+    found = new_symbols_of(claimed)
     for premise in premises:
         found -= content_symbols(premise)
     return found

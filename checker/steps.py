@@ -127,10 +127,8 @@ def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContex
             return step_result(step, CHECKED, "kernel replayed the stated evidence")
         return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}", premise_names(step)))
 
-    introduces = status not in CONSEQUENCE_STATUSES and new_symbols(claimed, premises)
-    if introduces:
-        formulas = [as_formula(p) for p in premises]
-        return check_introduction(step, formulas, claimed, premises, context.symbols, context.limits)
+    if new_symbols(claimed, premises):
+        return _check_with_new_symbols(step, claimed, premises, status, context)
     if isinstance(claimed, Clause) and all(isinstance(p, Clause) for p in premises):
         found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
@@ -154,3 +152,32 @@ def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContex
             (premise_names(step), *closest_lines(found.closest)),
         )
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)
+
+
+def _check_with_new_symbols(
+    step: Step, claimed: Clause | Formula, premises: Sequence[Clause | Formula], status: str, context: StepContext
+) -> StepResult:
+    """A step whose conclusion has symbols its premises lack is judged by
+    what it does, whatever its status claims.  Under a consequence status it
+    may still be one (``p(c)`` from ``! [X] : p(X)``), tried first; else it
+    must be an introduction.  A status that claims more than an introduction
+    (``thm``) is not held against a sound introduction; where neither
+    reading is shown, it is ``unproven``, never refuted by the consequence
+    check alone; and a structural fault of the introduction reading stands
+    only if the step is shown not to be a consequence.  A step that claims
+    to introduce (``esa``) is judged as an introduction only: Skolemizing
+    the wrong quantifier is a fault even where the result happens to follow."""
+    formulas = [as_formula(p) for p in premises]
+    consequence = None
+    if status in CONSEQUENCE_STATUSES:
+        consequence = check_consequence(step, formulas, as_formula(claimed), context.limits)
+        if consequence.outcome == RECONSTRUCTED:
+            return consequence
+    introduction = check_introduction(step, formulas, claimed, premises, context.symbols, context.limits)
+    if introduction.outcome != FAILED or consequence is None or consequence.outcome == REFUTED:
+        return introduction
+    return step_result(
+        step, UNPROVEN,
+        f"not shown a consequence within the search bounds, and as an introduction: {introduction.message}",
+        tuple(line for line in introduction.details if not line.startswith("reason: ")),
+    )

@@ -67,6 +67,8 @@ class SearchLimits:
     """clauses the refutation search may generate"""
     saturation_given: int = 60
     """clauses the refutation search may process"""
+    witness_readings: int = 64
+    """choices explored when pairing new Skolem symbols with quantifiers"""
 
     def scaled(self, factor: float) -> SearchLimits:
         """Every bound multiplied by ``factor`` (at least 1 each)."""

@@ -10,7 +10,8 @@ outer ones are replaced, as Skolemization does.
 
 from __future__ import annotations
 
-from collections.abc import Iterator, Sequence
+import itertools
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass
 
 from checker.kernel.clauses import Clause
@@ -76,47 +77,148 @@ def _uses(conclusion: Clause | Formula, symbols: set[Symbol]) -> list[Term]:
     return list(uses.values())
 
 
-def _witness(use: Term, free_in_order: list[Term]) -> Term:
-    """The Skolem term for a quantifier, from the symbol's first use: its
-    arguments where they are the quantifier's free variables, else the free
-    variables in binding order (padded with new variables if the symbol
-    takes more, cut short if it takes fewer, for the kernel to judge)."""
-    if all(a in free_in_order for a in use.arguments) and len(set(use.arguments)) == use.arity:
-        return use
-    arguments = free_in_order[: use.arity]
+def _arrangements(use: Term | None, symbol: Symbol, free_in_order: list[Term]) -> Iterator[Term]:
+    """Skolem terms of ``symbol`` over the quantifier's free variables, the
+    likeliest first: the symbol's first use when its arguments are exactly
+    those variables, then every placement of them among the arguments
+    (binding order first), extra arguments filled with new variables."""
+    name, arity = symbol
+    if use is not None and set(use.arguments) == set(free_in_order) and len(set(use.arguments)) == arity:
+        yield use
+    padding: list[Term] = []
     number = 0
-    while len(arguments) < use.arity:
+    while len(padding) < arity - len(free_in_order):
         candidate = variable(f"W{number}")
         number += 1
-        if candidate not in arguments:
-            arguments.append(candidate)
-    return application(use.symbol, tuple(arguments))
+        if candidate not in free_in_order:
+            padding.append(candidate)
+    for places in itertools.permutations(range(arity), len(free_in_order)):
+        arguments = list(padding)
+        for place in sorted(range(len(places)), key=places.__getitem__):
+            arguments.insert(places[place], free_in_order[place])
+        witness = application(name, tuple(arguments))
+        if witness is not use:
+            yield witness
 
 
-def next_witness(premises: Sequence[Formula], conclusion: Clause | Formula, remaining: set[Symbol]) -> Witnessing | Misfit:
-    """The outermost quantifier Skolemization may replace, paired with the
-    remaining new symbol that best fits it (first used, preferring one whose
-    arity is the quantifier's number of free variables)."""
-    uses = _uses(conclusion, remaining)
+def _replaceable(premises: Sequence[Formula], skipped: frozenset) -> tuple[list, Formula | None]:
+    """The quantifiers (premise by premise, outermost first) that
+    Skolemization may replace and that are not ``skipped``, each with its
+    premise and its free variables in binding order; and a quantifier it
+    may not replace, if there is one."""
+    found = []
     improper = None
     for index, premise in enumerate(premises):
         for formula, polarity, bound in _with_context(premise):
-            if formula.connective not in (EXISTS, FORALL):
+            if formula.connective not in (EXISTS, FORALL) or (index, formula) in skipped:
                 continue
-            replaceable = polarity == (1 if formula.connective == EXISTS else -1)
-            if not replaceable:
+            if polarity != (1 if formula.connective == EXISTS else -1):
                 improper = improper or formula
                 continue
             free = free_variables(formula)
             free_in_order = [v for v in dict.fromkeys(bound) if v in free]
             free_in_order += sorted(free - set(free_in_order), key=lambda v: v.symbol)
-            if not uses:
-                break
-            fitting = [use for use in uses if use.arity == len(free_in_order)]
-            use = (fitting or uses)[0]
-            return Witnessing(index, formula, formula.variables[0], _witness(use, free_in_order))
-    use = uses[0] if uses else None
-    symbol = (use.symbol, use.arity) if use else sorted(remaining)[0]
+            found.append((index, formula, free_in_order))
+    return found, improper
+
+
+@dataclass(frozen=True, slots=True)
+class Readings:
+    """The ways found of pairing every new symbol with a quantifier of its
+    own, each a list of witnessings in the order Skolemization applies them
+    (outermost first); ``exhaustive`` when the bound did not cut the
+    enumeration short, so that no other pairing exists; ``misfit`` says why
+    there is none."""
+
+    found: tuple[tuple[Witnessing, ...], ...]
+    exhaustive: bool
+    misfit: Misfit | None
+
+
+def witness_readings(
+    premises: Sequence[Formula],
+    conclusion: Clause | Formula,
+    new: set[Symbol],
+    bound: int,
+    replace: Callable[[Formula, Witnessing], Formula | None],
+) -> Readings:
+    """Every pairing of the new symbols with distinct quantifiers that
+    Skolemization may replace, each symbol taking at least the quantifier's
+    free variables as arguments, the likeliest first: symbols whose arity
+    is the quantifier's number of free variables, in order of first use.
+    A quantifier may be left unwitnessed.  ``replace`` applies a witnessing
+    (the kernel's Skolemization; None when it refuses).  At most ``bound``
+    choices are explored."""
+    uses = {(use.symbol, use.arity): use for use in _uses(conclusion, new)}
+    predicates = sorted(new - uses.keys())
+    if predicates:
+        name = f"{predicates[0][0]}/{predicates[0][1]}"
+        message = f"new symbol `{name}` is not applied as a function, and only a function can witness a quantifier"
+        return Readings((), True, Misfit(predicates[0], "no_quantifier", message))
+    rank = {symbol: number for number, symbol in enumerate(uses)}
+    found: list[tuple[Witnessing, ...]] = []
+    short: list[tuple[Symbol, Formula, list[Term]]] = []
+    improper: Formula | None = None
+    budget = 16 * bound
+    stack: list[tuple[tuple[Formula, ...], frozenset, frozenset, tuple[Witnessing, ...]]] = [
+        (tuple(premises), frozenset(new), frozenset(), ())
+    ]
+    while stack:
+        if budget <= 0 or len(found) >= bound:
+            return Readings(tuple(found), False, None)
+        budget -= 1
+        current, remaining, skipped, path = stack.pop()
+        if not remaining:
+            found.append(path)
+            continue
+        open_quantifiers, wrong = _replaceable(current, skipped)
+        improper = improper or wrong
+        # Each bound variable of a quantifier still there can take one
+        # symbol: fewer than the symbols left means no pairing below here.
+        if sum(len(q.variables) for _, q, _ in open_quantifiers) < len(remaining):
+            if open_quantifiers:
+                _, quantifier, free_in_order = open_quantifiers[0]
+                short.extend((s, quantifier, free_in_order) for s in remaining if s[1] < len(free_in_order))
+            continue
+        index, quantifier, free_in_order = open_quantifiers[0]
+        children = []
+        fitting = sorted(remaining, key=lambda s: (s[1] != len(free_in_order), rank.get(s, len(rank)), s))
+        for symbol in fitting:
+            if symbol[1] < len(free_in_order):
+                short.append((symbol, quantifier, free_in_order))
+                continue
+            for witness in _arrangements(uses.get(symbol), symbol, free_in_order):
+                witnessing = Witnessing(index, quantifier, quantifier.variables[0], witness)
+                replaced = replace(current[index], witnessing)
+                if replaced is not None:
+                    premises_after = current[:index] + (replaced,) + current[index + 1 :]
+                    children.append((premises_after, remaining - {symbol}, skipped, (*path, witnessing)))
+        children.append((current, remaining, skipped | {(index, quantifier)}, path))
+        stack.extend(reversed(children))
+    return Readings(tuple(found), True, None if found else _misfit(new, uses, short, improper))
+
+
+def _misfit(new: set[Symbol], uses: dict[Symbol, Term], short: list, improper: Formula | None) -> Misfit:
+    """Why no pairing exists: a symbol with too few arguments for every
+    quantifier it could witness, quantifiers Skolemization may not replace,
+    or too few quantifiers."""
+    if short:
+        symbol, quantifier, free_in_order = short[0]
+        use = uses.get(symbol)
+        if use is not None and set(use.arguments) <= set(free_in_order):
+            missing = [v.symbol for v in free_in_order if v not in use.arguments]
+            verb = "occurs" if len(missing) == 1 else "occur"
+            message = (
+                f"Skolem term `{use}` for `{quantifier.variables[0]}` does not depend on {', '.join(missing)}, "
+                f"which {verb} free in `{quantifier}`"
+            )
+        else:
+            message = (
+                f"new symbol `{symbol[0]}/{symbol[1]}` takes {symbol[1]} argument{'s' if symbol[1] != 1 else ''}, "
+                f"too few to witness `{quantifier}`, which depends on {', '.join(v.symbol for v in free_in_order)}"
+            )
+        return Misfit(symbol, "missing_dependency", message + ", and no other pairing of the new symbols with quantifiers fits")
+    symbol = next(iter(uses), None) or min(new)
     name = f"{symbol[0]}/{symbol[1]}"
     if improper is not None:
         return Misfit(

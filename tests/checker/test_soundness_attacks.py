@@ -9,7 +9,7 @@ Attacks that assay still accepts live in test_soundness_attacks_open.py.
 
 import json
 
-from checker.outcomes import ACCEPTED, CHECKED, FAILED, REFUTED, UNREADABLE
+from checker.outcomes import ACCEPTED, CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNREADABLE
 from checker.run import check
 
 # A small consistent problem: two docks, one of them open; the conjecture
@@ -374,10 +374,16 @@ cnf(f, plain, $false, inference(resolve, [status(thm)], [s1, n1])).
 
 
 def test_skolemization_claimed_as_a_logical_consequence(tmp_path):
-    # status(thm) claims ?X open(X) |= open(sk), which is false (a model
-    # where sk is a shut element); only esa steps may introduce witnesses.
+    # status(thm) claims ?X ~open(X) |= ~open(sk), which is false as a
+    # consequence; but a step that introduces a symbol is judged by what it
+    # does, and as a Skolemization it is sound.  Claimed with the witness
+    # of the other existential, it is neither.
     report = run(tmp_path, SOME_LEAVES + """
 cnf(s1, plain, ~ open(sk), inference(skolemize, [status(thm)], [some_shut])).
+""", SOME)
+    assert outcome_of(report, "s1") == RECONSTRUCTED
+    report = run(tmp_path, SOME_LEAVES + """
+cnf(s1, plain, ~ open(sk), inference(skolemize, [status(thm)], [some_open])).
 """, SOME)
     assert report.verdict != ACCEPTED
     assert outcome_of(report, "s1") == REFUTED
