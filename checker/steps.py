@@ -11,7 +11,7 @@ When nothing is found, the closest candidate is reported (``unproven``).
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from checker.formula_steps import (
     as_formula,
@@ -127,12 +127,16 @@ def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContex
             return step_result(step, CHECKED, "kernel replayed the stated evidence")
         return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}", premise_names(step)))
 
-    if new_symbols(claimed, premises):
+    introduces = bool(new_symbols(claimed, premises))
+    if introduces and status not in CONSEQUENCE_STATUSES:
         return _check_with_new_symbols(step, claimed, premises, status, context)
     if isinstance(claimed, Clause) and all(isinstance(p, Clause) for p in premises):
+        # A clause inference may instantiate with a symbol its premises lack.
         found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=context.limits, stated=step.bindings)
         if found.evidence is not None:
             return step_result(step, RECONSTRUCTED, f"kernel replayed {found.description}")
+        if introduces and not found.wrong_bindings:
+            return _check_with_new_symbols(step, claimed, premises, status, context)
         if found.wrong_bindings:
             # A certificate that misstates its unifier is wrong even when
             # another unifier works: its producer must see it.
@@ -151,6 +155,8 @@ def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContex
             step, UNPROVEN, "no evidence found within the search bounds (see --search-limit)",
             (premise_names(step), *closest_lines(found.closest)),
         )
+    if introduces:
+        return _check_with_new_symbols(step, claimed, premises, status, context)
     return check_consequence(step, [as_formula(p) for p in premises], as_formula(claimed), context.limits)
 
 
@@ -174,7 +180,13 @@ def _check_with_new_symbols(
         if consequence.outcome == RECONSTRUCTED:
             return consequence
     introduction = check_introduction(step, formulas, claimed, premises, context.symbols, context.limits)
-    if introduction.outcome != FAILED or consequence is None or consequence.outcome == REFUTED:
+    if consequence is not None and consequence.outcome == REFUTED and introduction.outcome == FAILED:
+        # Neither reading holds: say why it is no introduction, and show the
+        # counter-model to the consequence its status claims.
+        model = tuple(line for line in consequence.details if not line.startswith("reason: "))
+        return replace(introduction, message=f"{introduction.message}; and as a consequence of its premises "
+                       "it has a counter-model", details=(*introduction.details, *model))
+    if introduction.outcome != FAILED or consequence is None:
         return introduction
     return step_result(
         step, UNPROVEN,

@@ -77,10 +77,12 @@ def test_a_thm_step_whose_witness_forgets_a_dependency_fails(tmp_path):
         "cnf(c2, plain, ~ site(X0) | guards(sK0(north), X0), inference(cnf_transformation, [status(thm)], [sites_have_gates])).",
     )
     # sK0/1 applied to a constant: one gate for every site.  `north` is not
-    # in the premise either, and a problem's symbol is never fresh.
+    # in the premise either, and a problem's symbol is never fresh, so the
+    # step is no introduction; nor is it the consequence its status claims.
     assert report.verdict != ACCEPTED
     assert report.first_failure.name == "c2" and steps["c2"].outcome == FAILED
     assert "reason: not_fresh" in steps["c2"].details
+    assert "has a counter-model" in steps["c2"].message
 
 
 def test_an_esa_step_with_no_quantifier_to_witness_is_failed(tmp_path):
