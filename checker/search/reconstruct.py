@@ -67,6 +67,8 @@ class SearchLimits:
     """clauses the refutation search may generate"""
     saturation_given: int = 60
     """clauses the refutation search may process"""
+    sat_conflicts: int = 100000
+    """conflicts the SAT solver may meet on a propositional step"""
 
     def scaled(self, factor: float) -> SearchLimits:
         """Every bound multiplied by ``factor`` (at least 1 each)."""
