@@ -13,6 +13,7 @@ import traceback
 from collections import Counter
 from collections.abc import Sequence
 
+from checker.assumptions import check_branch_step, trace_branches
 from checker.freshness import build_symbol_table
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import FALSUM
@@ -30,6 +31,7 @@ from checker.outcomes import (
 from checker.parallel import map_in_processes
 from checker.plan import make_plan
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
@@ -166,9 +168,10 @@ def _check(
     for statement in document.statements:
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
     nested = _nested_by_outer(plan)
+    branches = trace_branches(plan, statements)
 
     def check_step(step, parents):
-        return check_inference(step, parents, context)
+        return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
     def results_for(step) -> list[StepResult]:
         """The results a stated step contributes: its nested records' and
@@ -178,7 +181,8 @@ def _check(
         if not found and inner:
             found = check_with_nested(step, inner, statements, check_step)
         elif not found and step.is_leaf:
-            found = [check_leaf(step, problem, limits, context.symbols)]
+            found = [check_branch_step(step, [], branches, statements, limits)
+                     or check_leaf(step, problem, limits, context.symbols)]
         elif not found:
             found = [check_step(step, [statements.get(name) for name in step.parents])]
         return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
@@ -187,6 +191,7 @@ def _check(
     results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]
     results = _one_conjecture_at_a_time(plan, statements, problem, results)
     results.extend(_whole_derivation(document))
+    results = with_splitting_details(results, plan, branches, statements)
     verdict = verdict_of(results)
     cautions = []
     if problem is None and verdict == ACCEPTED:

@@ -32,6 +32,7 @@ from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, 
 from checker.plan import Step
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
+from checker.splitting import check_propositional_step
 from formats.derivation import Statement
 
 # TPTP statuses (SZS ontology) under which the conclusion is a logical
@@ -109,6 +110,10 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
         if failure is None:
             return step_result(step, CHECKED, "kernel replayed the stated evidence")
         return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}", premise_names(step)))
+
+    propositional = check_propositional_step(step, premises, claimed, context.limits)
+    if propositional is not None:
+        return propositional
 
     introduces = status not in CONSEQUENCE_STATUSES and new_symbols(claimed, premises)
     if introduces:
