@@ -81,7 +81,9 @@ class Branches:
 
 
 def _declared(step: Step) -> tuple[str, ...] | None:
-    for item in step.inference.info if step.inference else ():
+    if step.statement is None or step.inference is None:
+        return None
+    for item in step.inference.info:
         found = _RECORD.fullmatch(item.replace(" ", ""))
         if found:
             return tuple(name.strip("'") for name in found.group(1).split(",") if name)
@@ -92,7 +94,7 @@ def _is_assumption(step: Step) -> bool:
     if step.inference is None:
         origin = step.statement.source if step.statement else None
         return isinstance(origin, Origin) and origin.kind == "introduced" and origin.detail[:1] == ("assumption",)
-    return step.inference.rule in OPENING_RULES and len(step.parents) == 1
+    return step.statement is not None and step.inference.rule in OPENING_RULES and len(step.parents) == 1
 
 
 def _is_false(statement: Statement | None) -> bool:
