@@ -9,12 +9,13 @@ the whole derivation, the assumptions each step rests on:
 - an assumption (an ``introduced(assumption, ...)`` leaf, or a step of a
   rule that opens a branch, whose one parent is the split clause) rests on
   itself and on what its parent rests on;
-- a `$false` resting on assumptions closes the innermost of them (the one
-  assumed last);
+- a `$false` resting on assumptions shows that, given all but one of them,
+  the remaining one is false: it can close the branch of any of them;
 - a step whose one parent is a split clause with closed branches, and which
   states part of that clause (or names the rule that does), discharges
   them: it must follow from the clause and the negation of each closed
-  assumption, and rests on what the closing `$false` steps rested on besides;
+  assumption, and rests on what the closing `$false` steps (written before
+  it, the ones carrying fewest other assumptions) rested on besides;
 - a step that writes ``assumptions([...])`` (TPTP's record) discharges the
   assumptions of its parents it no longer lists: it must follow from
   ``assumption => parent`` for each;
@@ -51,7 +52,7 @@ _RECORD = re.compile(r"assumptions\(\[(.*)\]\)")
 class Assumption:
     """A step that assumes: ``split`` is the clause it is a component of
     (None for an introduced assumption); ``closed_by`` the first `$false`
-    that closed its branch."""
+    that rests on it."""
 
     name: str
     split: str | None
@@ -67,6 +68,8 @@ class Discharge:
     name: str
     split: str | None
     discharged: tuple[str, ...]
+    closers: tuple[str, ...] = ()
+    """for a split clause: the `$false` closing each discharged branch"""
 
 
 @dataclass(frozen=True, slots=True)
@@ -116,16 +119,24 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
     discharges: dict[str, Discharge] = {}
     rests_on: dict[str, frozenset[str]] = {}
     declared: dict[str, tuple[str, ...]] = {}
+    falses: list[str] = []  # the `$false` steps so far that rest on assumptions
+    branches_of: dict[str, list[str]] = {}  # split clause -> its assumed branches
     for step in plan.steps:
         inherited = frozenset().union(*(rests_on.get(parent, frozenset()) for parent in step.parents))
         record = _declared(step)
         if record is not None:
             declared[step.name] = record
-        closed = []
+        closed: dict[str, str] = {}
         if len(step.parents) == 1 and step.inference is not None and not _is_assumption(step):
-            closed = [a for a in assumptions.values() if a.split == step.parents[0] and a.closed_by]
+            for branch in branches_of.get(step.parents[0], ()):
+                closers = [f for f in falses if branch in rests_on[f]]
+                if closers:
+                    extra = rests_on[step.parents[0]] | {branch}
+                    closed[branch] = min(closers, key=lambda f, extra=extra: (len(rests_on[f] - extra), order[f]))
         if _is_assumption(step):
             assumptions[step.name] = Assumption(step.name, step.parents[0] if step.parents else None)
+            if step.parents:
+                branches_of.setdefault(step.parents[0], []).append(step.name)
             rests = inherited | {step.name}
         elif record is not None and inherited - set(record):
             discharges[step.name] = Discharge(step.name, None, tuple(sorted(inherited - set(record), key=order.get)))
@@ -135,15 +146,16 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
             or (step.inference is not None and step.inference.rule in CLOSING_RULES)
         ):
             discharges[step.name] = Discharge(step.name, step.parents[0] if step.parents else None,
-                                              tuple(a.name for a in closed))
-            rests = inherited.union(*(rests_on[a.closed_by] - {a.name} for a in closed))
+                                              tuple(closed), tuple(closed.values()))
+            rests = inherited.union(*(rests_on[f] - {a} for a, f in closed.items()))
         else:
             rests = inherited
         rests_on[step.name] = rests
         if rests and step.statement is not None and _is_false(step.statement):
-            innermost = max(rests, key=order.get)
-            if assumptions[innermost].closed_by is None:
-                assumptions[innermost] = Assumption(innermost, assumptions[innermost].split, step.name)
+            falses.append(step.name)
+            for name in rests:
+                if assumptions[name].closed_by is None:
+                    assumptions[name] = Assumption(name, assumptions[name].split, step.name)
     return Branches(assumptions, discharges, rests_on, declared)
 
 
@@ -193,15 +205,16 @@ def check_branch_step(
         return check_consequence(step, premises, as_formula(step.statement.content), limits, what=what)
     if not discharge.discharged:
         opened = [a for a in branches.assumptions.values() if a.split == discharge.split]
-        lines = [f"{describe_assumption(branches, a.name, statements)}; no `$false` closed it" for a in opened]
-        why = "no branch of it was assumed" if not opened else "none of its branches was closed by a `$false`"
+        lines = [f"{describe_assumption(branches, a.name, statements)}; no `$false` written before this step rests on it"
+                 for a in opened]
+        why = "no branch of it was assumed" if not opened else "none of its branches was closed by a `$false` before it"
         return step_result(
             step, FAILED, f"states the rest of split clause `{discharge.split}`, but {why}",
             ("reason: branch_not_closed", *lines),
         )
     split = parents[0]
     premises = [as_formula(split.content)] + [negation(_closure_of(statements[a])) for a in discharge.discharged]
-    closers = ", ".join(f"`{a}` closed by `{branches.assumptions[a].closed_by}`" for a in discharge.discharged)
+    closers = ", ".join(f"`{a}` closed by `{f}`" for a, f in zip(discharge.discharged, discharge.closers))
     result = check_consequence(
         step, premises, as_formula(step.statement.content), limits,
         what=f"follows from split clause `{split.name}` and its closed branches ({closers})",
@@ -215,7 +228,7 @@ def _check_assumption(step: Step, parents: Sequence[Statement | None], branches:
     variable with the rest, or the other side of the split is not its
     complement."""
     assumption = branches.assumptions[step.name]
-    fate = f"closed by `{assumption.closed_by}`" if assumption.closed_by else "never closed"
+    fate = f"first closed by `{assumption.closed_by}`" if assumption.closed_by else "never closed"
     if not parents:
         return step_result(step, ASSUMED, f"assumption (introduced); {fate}")
     claimed, split = step.statement.content, parents[0].content

@@ -55,7 +55,10 @@ cnf(c3, plain, idle(Y), inference(splitRight, [status(thm)], [shift])).
 cnf(c2, plain, $false, inference(resolution, [status(thm)], [c1, nothing_loaded])).
 cnf(c4, plain, $false, inference(resolution, [status(thm)], [c3, busy])).
 """)
-    assert (report.first_failure.name, report.first_failure.reason) == ("c3", "branch_not_closed")
+    failure = report.first_failure
+    assert (failure.name, failure.reason) == ("c3", "branch_not_closed")
+    assert "assumption `c1`: `loaded(X)` (a component of `shift`); no `$false` written before this step rests on it" \
+        in failure.details
 
 
 def test_the_other_side_of_a_clause_never_split_is_refused(tmp_path):
@@ -141,7 +144,7 @@ fof(h1, plain, loaded(truck1), introduced(assumption, [])).
 fof(h2, plain, $false, inference(contradiction, [status(thm), assumptions([h1])], [h1, nothing_loaded])).
 """)
     assert (report.first_failure.name, report.first_failure.reason) == ("h2", "open_assumption")
-    assert "assumption (introduced); closed by `h2`" in by_name(report, "h1")[0].message
+    assert "assumption (introduced); first closed by `h2`" in by_name(report, "h1")[0].message
 
 
 # ---------------------------------------------------------------- the propositional path

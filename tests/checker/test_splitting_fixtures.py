@@ -148,6 +148,6 @@ def test_a_failure_under_a_guard_names_the_guard():
     assert "guard: `sp2` (the step claims `$false` under it)" in report.first_failure.details
 
 
-def test_a_branch_that_was_never_closed_is_named():
+def test_the_other_side_names_the_branch_it_relies_on():
     report = check(_path("depot_two_levels", "mutant_closed_under_wrong_split.p"), _path("depot_two_levels", "problem.p"))
-    assert "assumption `s1`: `loaded(X)` (a component of `shift`); no `$false` closed it" in report.first_failure.details
+    assert "split clause `shift` and its closed branches (`s1` closed by `s4`)" in report.first_failure.message
