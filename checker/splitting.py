@@ -43,8 +43,13 @@ def check_propositional_step(
 ) -> StepResult | None:
     """A purely propositional step shown by a kernel-checked RUP refutation;
     None when the step is not propositional or no refutation was found (the
-    ordinary checks then look for a counter-model)."""
+    ordinary checks then look for a counter-model).  A step from one or two
+    clauses to a clause is left to the ordinary search, which names the
+    single inference it replays."""
     if not premises or not all(map(is_propositional, (*premises, claimed))):
+        return None
+    clauses_only = all(isinstance(content, Clause) for content in (*premises, claimed))
+    if clauses_only and len(premises) <= 2:
         return None
     lemmas = find_unit_entailment(premises, claimed, limits.sat_conflicts)
     if lemmas is None or check_unit_entailment(premises, claimed, lemmas) is not None:

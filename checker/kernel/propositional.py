@@ -23,33 +23,69 @@ from checker.kernel.failure import Failure, quote
 from checker.kernel.formulas import Formula
 
 
-def _propagates_to_conflict(clauses: Sequence[Clause], false_literals: Sequence[Literal]) -> bool:
-    """Whether unit propagation from the literals set false reaches a clause
-    whose literals are all false."""
-    true = {literal.negated() for literal in false_literals}
-    changed = True
-    while changed:
-        changed = False
-        for clause in clauses:
-            unassigned = [literal for literal in clause.literal_set if literal.negated() not in true]
-            if not unassigned:
+class _Propagator:
+    """The clauses so far, literals numbered (an atom +n, its negation -n),
+    with the clauses each literal occurs in, for unit propagation."""
+
+    def __init__(self) -> None:
+        self.numbers: dict[Literal, int] = {}
+        self.clauses: list[tuple[int, ...]] = []
+        self.occurrences: dict[int, list[int]] = {}
+        self.units: list[int] = []
+        self.has_empty = False
+
+    def number(self, literal: Literal) -> int:
+        positive = literal if literal.positive else literal.negated()
+        code = self.numbers.setdefault(positive, len(self.numbers) + 1)
+        return code if literal.positive else -code
+
+    def add(self, clause: Clause) -> None:
+        codes = tuple({self.number(literal) for literal in clause.literal_set})
+        for code in codes:
+            self.occurrences.setdefault(code, []).append(len(self.clauses))
+        self.clauses.append(codes)
+        self.has_empty |= not codes
+        if len(codes) == 1:
+            self.units.append(codes[0])
+
+    def conflict(self, false_literals: Sequence[Literal]) -> bool:
+        """Whether unit propagation from the literals set false reaches a
+        clause whose literals are all false."""
+        true: set[int] = set()
+        if self.has_empty:
+            return True
+        pending = [-self.number(literal) for literal in false_literals] + self.units
+        while pending:
+            code = pending.pop()
+            if -code in true:
                 return True
-            if len(unassigned) == 1 and unassigned[0] not in true:
-                true.add(unassigned[0])
-                changed = True
-    return False
+            if code in true:
+                continue
+            true.add(code)
+            for index in self.occurrences.get(-code, ()):
+                codes = self.clauses[index]
+                if any(other in true for other in codes):
+                    continue
+                unassigned = [other for other in codes if -other not in true]
+                if not unassigned:
+                    return True
+                if len(unassigned) == 1:
+                    pending.append(unassigned[0])
+        return False
 
 
 def check_unit_refutation(clauses: Sequence[Clause], lemmas: Sequence[Clause]) -> Failure | None:
     """None when ``lemmas`` is a RUP refutation of ``clauses``."""
-    known = list(clauses)
+    known = _Propagator()
+    for clause in clauses:
+        known.add(clause)
     for number, lemma in enumerate(lemmas):
-        if not _propagates_to_conflict(known, lemma.literals):
+        if not known.conflict(lemma.literals):
             return Failure(
                 "not_unit_implied",
                 f"lemma {number} {quote(lemma)} does not follow by unit propagation from the clauses before it",
             )
-        known.append(lemma)
+        known.add(lemma)
     if not lemmas or not lemmas[-1].is_empty:
         return Failure("refutation_incomplete", "the lemmas do not end in the empty clause")
     return None

@@ -186,3 +186,12 @@ def test_propositional_clauses(text, expected):
 ])
 def test_propositional_formulas(text, expected):
     assert is_propositional(parse_formula(text)) is expected
+
+
+def test_a_single_propositional_resolution_is_left_to_the_ordinary_search(tmp_path):
+    report = run(tmp_path, """
+fof(p1, axiom, (spl1 | spl2 | spl3), file('problem.p', p1)).
+cnf(p4, axiom, ~spl3 | spl2, file('problem.p', p4)).
+cnf(r, plain, spl2 | ~spl3, inference(resolution, [status(thm)], [p4])).
+""", NAMES_PROBLEM)
+    assert by_name(report, "r")[0].message.startswith("kernel replayed")
