@@ -14,6 +14,7 @@ from collections import Counter
 from collections.abc import Sequence
 
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
+from checker.assumptions import check_branch_step, trace_branches
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.nested import check_with_nested
@@ -28,6 +29,7 @@ from checker.outcomes import (
 from checker.parallel import map_in_processes
 from checker.plan import make_plan, with_cited_problem_statements
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
@@ -165,9 +167,10 @@ def _check(
     for statement in document.statements:
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
     nested = _nested_by_outer(plan)
+    branches = trace_branches(plan, statements)
 
     def check_step(step, parents):
-        return check_inference(step, parents, context)
+        return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
     def results_for(step) -> list[StepResult]:
         """The results a stated step contributes: its nested records' and
@@ -177,7 +180,8 @@ def _check(
         if not found and inner:
             found = check_with_nested(step, inner, statements, check_step)
         elif not found and step.is_leaf:
-            found = [check_leaf(step, problem, limits, context.symbols)]
+            found = [check_branch_step(step, [], branches, statements, limits)
+                     or check_leaf(step, problem, limits, context.symbols)]
         elif not found:
             found = [check_step(step, [statements.get(name) for name in step.parents])]
         return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
@@ -186,6 +190,7 @@ def _check(
     results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]
     results = one_conjecture_at_a_time(plan, statements, problem, results)
     results.extend(reaches_refutation(document))
+    results = with_splitting_details(results, plan, branches, statements)
     verdict = verdict_of(results)
     cautions = []
     if problem is None and verdict == ACCEPTED:

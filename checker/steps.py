@@ -34,6 +34,7 @@ from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
 from checker.sorts import arithmetic_sorts, erasure_hazard
 from checker.statuses import CONSEQUENCE_STATUSES
+from checker.splitting import check_propositional_step
 from formats.derivation import Statement
 
 
@@ -126,6 +127,10 @@ def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContex
         if failure is None:
             return step_result(step, CHECKED, "kernel replayed the stated evidence")
         return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}", premise_names(step)))
+
+    propositional = check_propositional_step(step, premises, claimed, context.limits)
+    if propositional is not None:
+        return propositional
 
     introduces = bool(new_symbols(claimed, premises))
     if introduces and status not in CONSEQUENCE_STATUSES:

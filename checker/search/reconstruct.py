@@ -69,6 +69,8 @@ class SearchLimits:
     """clauses the refutation search may process"""
     witness_readings: int = 64
     """choices explored when pairing new Skolem symbols with quantifiers"""
+    sat_conflicts: int = 100000
+    """conflicts the SAT solver may meet on a propositional step"""
 
     def scaled(self, factor: float) -> SearchLimits:
         """Every bound multiplied by ``factor`` (at least 1 each)."""
