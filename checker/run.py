@@ -13,8 +13,8 @@ import traceback
 from collections import Counter
 from collections.abc import Sequence
 
-from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.assumptions import check_branch_step, trace_branches
+from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.nested import check_with_nested

@@ -33,8 +33,8 @@ from checker.plan import Step
 from checker.search.models import find_countermodel
 from checker.search.reconstruct import Candidate, SearchLimits, reconstruct
 from checker.sorts import arithmetic_sorts, erasure_hazard
-from checker.statuses import CONSEQUENCE_STATUSES
 from checker.splitting import check_propositional_step
+from checker.statuses import CONSEQUENCE_STATUSES
 from formats.derivation import Statement
 
 
