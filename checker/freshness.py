@@ -9,10 +9,10 @@ for the whole derivation at once.
 from __future__ import annotations
 
 from collections.abc import Iterable
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from checker.kernel.clauses import Clause
-from checker.kernel.formulas import Formula, symbols_of_formula
+from checker.kernel.formulas import Formula, subformulas_with_polarity, symbols_of_formula
 from checker.plan import Step
 from formats.derivation import Document, Location
 
@@ -40,6 +40,11 @@ class SymbolTable:
     children: dict[str, list[str]]
     introducers: dict[Symbol, list[str]]
     order: dict[str, int]
+    planned: dict[str, Step] = field(default_factory=dict)
+    """every planned step by name (stated or nested), for derivation-wide conditions"""
+    polarities: dict[Symbol, dict[int, tuple[str, Location]]] = field(default_factory=dict)
+    """per predicate, where it first occurs positively (+1) and negatively
+    (-1) in the problem and the stated steps (conjectures counted negated)"""
 
     def descendants(self, name: str) -> set[str]:
         found: set[str] = set()
@@ -117,7 +122,32 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
+        {s.name: s for s in steps},
+        _polarities(problem, steps),
     )
+
+
+def _polarities(problem: Document | None, steps: list[Step]) -> dict[Symbol, dict[int, tuple[str, Location]]]:
+    """Where each predicate first occurs with each polarity, over every
+    formula of the problem and the derivation.  A conjecture is refuted
+    through its negation, so its polarities count reversed; under an
+    equivalence a predicate occurs with both."""
+    statements = [*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement is not None)]
+    found: dict[Symbol, dict[int, tuple[str, Location]]] = {}
+    for statement in statements:
+        content = statement.content
+        turn = -1 if statement.role == "conjecture" else 1
+        if isinstance(content, Clause):  # literals directly: no walk over their (maybe deep) terms
+            atoms = [(literal.atom, 1 if literal.positive else -1) for literal in content.literals]
+        else:
+            atoms = [(f.atom, polarity) for f, polarity in subformulas_with_polarity(content) if f.atom is not None]
+        for atom, polarity in atoms:
+            if atom.symbol == "=" or atom.symbol.startswith("$"):
+                continue
+            where = found.setdefault((atom.symbol, atom.arity), {})
+            for sign in (polarity * turn,) if polarity else (1, -1):
+                where.setdefault(sign, (statement.name, statement.location))
+    return found
 
 
 def _is_introduction(step: Step) -> bool:
