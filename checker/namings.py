@@ -101,6 +101,25 @@ def _introductions(table: SymbolTable, symbol: Symbol) -> tuple:
     return tuple(found)
 
 
+def _given(table: SymbolTable, symbol: Symbol) -> bool:
+    """Whether ``symbol`` belongs to what the derivation starts from: the
+    problem, or a leaf it did not introduce (with no problem, the leaves
+    are the problem).  Such a predicate is no name: a step adding it is a
+    weakening (or wrong), judged as a consequence."""
+    if symbol in table.problem:
+        return True
+    return any(
+        step.is_leaf and not is_definition_leaf(step) and _origin_kind(step) != "introduced"
+        and symbol in table.steps.get(name, ())
+        for name, step in table.planned.items()
+    )
+
+
+def _origin_kind(step: Step) -> str | None:
+    source = step.statement.source if step.statement is not None else None
+    return source.kind if isinstance(source, Origin) else None
+
+
 def _only_iff(definitions: Sequence[Formula]) -> bool:
     """Whether each definition fixes its symbol (an equivalence), so that a
     counter-model refutes the step under every admissible meaning."""
@@ -135,9 +154,7 @@ def check_naming_step(
         return None
     claimed = step.statement.content
     premises = [parent.content for parent in parents]
-    # A predicate of the problem is no name: a step adding one is a
-    # weakening (or wrong), judged as a consequence.
-    named = {symbol for symbol in new_predicates(claimed, premises) if symbol not in table.problem}
+    named = {symbol for symbol in new_predicates(claimed, premises) if not _given(table, symbol)}
     if not named:
         return None
     definitions: list[Formula] = []
@@ -191,5 +208,6 @@ def check_defined_leaf(step: Step, table: SymbolTable, limits: SearchLimits) -> 
         return None
     definitions = [formula for _, formula in found]
     names = ", ".join(f"`{name}`" for name, _ in found)
-    result = check_consequence(step, definitions, as_formula(content), limits, what=f"follows from the definitions {names}")
+    what = f"follows from the definition{'s' if len(found) > 1 else ''} {names}"
+    result = check_consequence(step, definitions, as_formula(content), limits, what=what)
     return result if _only_iff(definitions) else _without_refutation(result, "definition_not_shown")

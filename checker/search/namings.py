@@ -104,11 +104,14 @@ def _orders(free: list[Term], applied: list[Term], pairing: dict[Term, Term]) ->
             yield order
 
 
-def proposals(symbol: Symbol, premises: Sequence[Formula], conclusion: Formula) -> list[Formula]:
+def proposals(
+    symbol: Symbol, premises: Sequence[Clause | Formula], conclusion: Clause | Formula
+) -> list[Formula]:
     """Definitions of ``symbol`` by subformulas of the premises, at most
     :data:`CANDIDATES`: non-atomic subformulas of the polarity the name has
     in the conclusion first, innermost first; atoms last."""
     name, arity = symbol
+    premises, conclusion = [_closed(p) for p in premises], _closed(conclusion)
     applied = [atom.arguments for atom in _applications(symbol, conclusion)]
     signs = {p for f, p in subformulas_with_polarity(conclusion) if f.atom is not None and (f.atom.symbol, f.atom.arity) == symbol}
     pairing = _pairings(premises, conclusion)
