@@ -20,7 +20,7 @@ from collections.abc import Sequence
 from checker.formula_steps import as_formula, check_consequence, check_introduction, step_result
 from checker.freshness import Symbol, SymbolTable, describe_symbol, new_symbols
 from checker.kernel.clauses import Clause
-from checker.kernel.formulas import FORALL, IFF, Formula, subformulas_with_polarity
+from checker.kernel.formulas import FORALL, IFF, Formula, subformulas_with_polarity, symbols_of_formula
 from checker.kernel.introductions import check_definition
 from checker.outcomes import FAILED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
@@ -120,6 +120,17 @@ def _origin_kind(step: Step) -> str | None:
     return source.kind if isinstance(source, Origin) else None
 
 
+def _later_symbols(table: SymbolTable, symbol: Symbol, definition: Formula) -> set[Symbol]:
+    """Symbols of the definition that exist only after the name's first
+    introduction: a name must be interpretable when it first appears, so
+    its definition may use only what the problem or earlier steps have."""
+    first = min(table.order[name] for name in table.introducers[symbol])
+    return {
+        other for other in symbols_of_formula(definition) - {symbol}
+        if other in table.introducers and all(table.order[name] > first for name in table.introducers[other])
+    }
+
+
 def _only_iff(definitions: Sequence[Formula]) -> bool:
     """Whether each definition fixes its symbol (an equivalence), so that a
     counter-model refutes the step under every admissible meaning."""
@@ -170,7 +181,7 @@ def check_naming_step(
         if not_fresh:
             return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
         chosen = choose_definition(symbol, _introductions(table, symbol), limits)
-        if chosen is None or check_definition(chosen, symbol) is not None:
+        if chosen is None or check_definition(chosen, symbol) is not None or _later_symbols(table, symbol, chosen):
             return step_result(
                 step, UNPROVEN,
                 f"uses a new predicate `{describe_symbol(symbol)}` that nothing defines, and no subformula of the "
