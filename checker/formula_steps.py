@@ -318,7 +318,7 @@ def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits
     itself (a tautology, an equality axiom)."""
     content = step.statement.content
     kind = origin.detail[0] if origin.detail else ""
-    if kind == "definition" or kind.endswith("_definition"):
+    if "definition" in kind:
         return check_definition_leaf(step, table)
     if isinstance(content, Formula):
         choice = _choice_parts(universal_closure(content))
@@ -330,7 +330,9 @@ def check_introduced_leaf(step: Step, origin: Origin, table: SymbolTable, limits
             # Skolemization of `Q => Q` or it is not sound.
             tautology = universal_closure(binary(IMPLIES, quantifier, quantifier))
             return check_introduction(step, [tautology], content, [tautology], table, limits)
-    return check_valid_leaf(step, limits)
+    from checker.namings import check_defined_leaf  # it builds on this module
+
+    return check_defined_leaf(step, table, limits) or check_valid_leaf(step, limits)
 
 
 def _choice_quantifier(axiom: Formula) -> Formula | None:

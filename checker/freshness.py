@@ -12,7 +12,7 @@ from collections.abc import Iterable
 from dataclasses import dataclass, field
 
 from checker.kernel.clauses import Clause
-from checker.kernel.formulas import Formula, symbols_of_formula
+from checker.kernel.formulas import Formula, subformulas_with_polarity, symbols_of_formula
 from checker.plan import Step
 from checker.sorts import non_monotone_statements, sorts_of
 from formats.derivation import Document, Location
@@ -53,6 +53,11 @@ class SymbolTable:
     """the sorts of individuals of the problem and the derivation"""
     non_monotone: dict[str, str] = field(default_factory=dict)
     """problem statements with a naked variable in a positive equality (checker/sorts.py)"""
+    planned: dict[str, Step] = field(default_factory=dict)
+    """every planned step by name (stated or nested), for derivation-wide conditions"""
+    polarities: dict[Symbol, dict[int, tuple[str, Location]]] = field(default_factory=dict)
+    """per predicate, where it first occurs positively (+1) and negatively
+    (-1) in the problem and the stated steps (conjectures counted negated)"""
 
     def descendants(self, name: str) -> set[str]:
         found: set[str] = set()
@@ -172,7 +177,32 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         implicit_citations,
         sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)]),
         non_monotone_statements(problem.statements) if problem else {},
+        {s.name: s for s in steps},
+        _polarities(problem, steps),
     )
+
+
+def _polarities(problem: Document | None, steps: list[Step]) -> dict[Symbol, dict[int, tuple[str, Location]]]:
+    """Where each predicate first occurs with each polarity, over every
+    formula of the problem and the derivation.  A conjecture is refuted
+    through its negation, so its polarities count reversed; under an
+    equivalence a predicate occurs with both."""
+    statements = [*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement is not None)]
+    found: dict[Symbol, dict[int, tuple[str, Location]]] = {}
+    for statement in statements:
+        content = statement.content
+        turn = -1 if statement.role == "conjecture" else 1
+        if isinstance(content, Clause):  # literals directly: no walk over their (maybe deep) terms
+            atoms = [(literal.atom, 1 if literal.positive else -1) for literal in content.literals]
+        else:
+            atoms = [(f.atom, polarity) for f, polarity in subformulas_with_polarity(content) if f.atom is not None]
+        for atom, polarity in atoms:
+            if atom.symbol == "=" or atom.symbol.startswith("$"):
+                continue
+            where = found.setdefault((atom.symbol, atom.arity), {})
+            for sign in (polarity * turn,) if polarity else (1, -1):
+                where.setdefault(sign, (statement.name, statement.location))
+    return found
 
 
 def _is_introduction(step: Step) -> bool:

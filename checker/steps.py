@@ -21,6 +21,7 @@ from checker.formula_steps import (
     step_result,
 )
 from checker.freshness import SymbolTable, new_symbols
+from checker.global_steps import check_removal, removal_hinted
 from checker.kernel.clauses import Clause
 from checker.kernel.failure import quote
 from checker.kernel.formulas import Formula
@@ -28,6 +29,7 @@ from checker.kernel.models import confirm_countermodel, render_countermodel
 from checker.kernel.rules import check_clause_step
 from checker.kernel.substitution import IDENTITY
 from checker.leaves import equivalent_content
+from checker.namings import check_naming_step
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.models import find_countermodel
@@ -79,7 +81,7 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
     hazard = erasure_hazard(step.statement, step.inference, parents, context.symbols.sorts, context.symbols.non_monotone)
     if hazard is not None:
         return step_result(step, UNPROVEN, hazard, ("reason: unsupported_sorts",))
-    result = _check_untyped(step, parents, context)
+    result = _check_named_or_removed(step, parents, context)
     arithmetic = arithmetic_sorts([step.statement, *parents])
     if arithmetic and result.outcome in (REFUTED, UNPROVEN):
         return step_result(
@@ -91,7 +93,9 @@ def check_inference(step: Step, parents: Sequence[Statement | None], context: St
     return result
 
 
-def _check_untyped(step: Step, parents: Sequence[Statement], context: StepContext) -> StepResult:
+def check_from_premises(step: Step, parents: Sequence[Statement], context: StepContext) -> StepResult:
+    """The outcome of an inference step judged by what its parent
+    statements say, sorts erased."""
     inference = step.inference
     claimed = step.statement.content
     premises = [parent.content for parent in parents]
@@ -198,3 +202,35 @@ def _check_with_new_symbols(
         f"not shown a consequence within the search bounds, and as an introduction: {introduction.message}",
         tuple(line for line in introduction.details if not line.startswith("reason: ")),
     )
+
+
+def _check_named_or_removed(step: Step, parents: Sequence[Statement], context: StepContext) -> StepResult:
+    """The outcome of an inference step whose parent statements are
+    ``parents``: a step with new predicates as a naming, one that drops a
+    predicate also against the derivation-wide condition that may make it
+    sound (first, when its rule name says it removes something)."""
+    naming = check_naming_step(step, parents, context.symbols, context.limits)
+    if naming is not None:
+        return naming
+    hinted = removal_hinted(step)
+    removal = check_removal(step, parents, context.symbols, context.limits) if hinted else None
+    if removal is not None and removal.result is not None:
+        return removal.result
+    local = check_from_premises(step, parents, context)
+    if local.outcome not in (REFUTED, UNPROVEN):
+        return local
+    removal = removal or check_removal(step, parents, context.symbols, context.limits)
+    if removal.result is not None:
+        return removal.result
+    if not (hinted and removal.objections):
+        return local
+    others = tuple(d for d in local.details if not d.startswith("reason: "))
+    if local.outcome == REFUTED:
+        # Not a consequence (the counter-model is confirmed), and the global
+        # condition that could make the removal sound does not hold.
+        return step_result(
+            step, FAILED, f"removes a predicate that the global condition does not allow: {removal.objections[0]}",
+            ("reason: not_pure", *removal.objections[1:], local.message, *others),
+        )
+    return StepResult(local.name, local.outcome, local.rule, local.message, local.location,
+                      (*local.details, *removal.objections))
