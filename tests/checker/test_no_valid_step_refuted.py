@@ -6,7 +6,9 @@ every step but a mutant's announced broken one must not be refuted.  Which
 steps are valid was settled when each fixture was written (see
 tests/checker/test_tptp_derivations.py and the fixtures' own comments):
 valid derivations are valid throughout, and a mutant is broken at exactly
-the step its ``% broken-step:`` header names, or, for the one JSON Lines
+the step its ``% broken-step:`` (or ``% expected: rejected at``) header names
+and the steps an ``% also refuted:`` line names (those that follow from the
+original claim of the changed step, not from the changed one), or, for the one JSON Lines
 mutant, at the step its comment names.
 """
 
@@ -23,7 +25,7 @@ from checker.run import check
 
 FIXTURES = Path(__file__).resolve().parents[2] / "fixtures"
 
-_BROKEN = re.compile(r"^% broken-step: (\S+)", re.MULTILINE)
+_BROKEN = re.compile(r"^% (?:broken-step:|expected: rejected at|also refuted:) ([^\s,;]+)", re.MULTILINE)
 
 
 def _derivations() -> list[Path]:
