@@ -15,6 +15,7 @@ size, ground clauses, solver conflicts), never by time.
 
 from __future__ import annotations
 
+from collections import OrderedDict
 from collections.abc import Sequence
 from dataclasses import dataclass
 from itertools import combinations, product
@@ -167,6 +168,17 @@ def solve(problem: list[list[int]], conflicts: int) -> set[int] | bool | None:
         return {n for n in solver.get_model() if n > 0}
 
 
+_FOUND: OrderedDict[tuple, tuple[int, int, Interpretation]] = OrderedDict()
+"""Counter-models found lately, by premises and conclusion, with the
+ground-clause and conflict bounds they were found under: the search
+screens a step with small bounds before the checker asks again with its
+own.  Domain sizes are tried in order and the solver is deterministic, so
+a search with bounds at least as large finds the same model; only then is
+the remembered one returned, and a result never depends on what was
+asked before."""
+_REMEMBERED = 256
+
+
 def find_countermodel(
     premises: Sequence[Clause | Formula],
     conclusion: Clause | Formula,
@@ -178,6 +190,21 @@ def find_countermodel(
     in which the premises are true and the conclusion false, or None when
     there is none that small or a bound (``limit`` ground clauses per
     domain size, ``conflicts`` solver conflicts) was reached first."""
+    key = (tuple(premises), conclusion)
+    known = _FOUND.get(key)
+    if known is not None and known[0] <= limit and known[1] <= conflicts and known[2].size <= max_domain:
+        return known[2]
+    found = _search(premises, conclusion, max_domain, limit, conflicts)
+    if found is not None:
+        _FOUND[key] = (limit, conflicts, found)
+        if len(_FOUND) > _REMEMBERED:
+            _FOUND.popitem(last=False)
+    return found
+
+
+def _search(
+    premises: Sequence[Clause | Formula], conclusion: Clause | Formula, max_domain: int, limit: int, conflicts: int
+) -> Interpretation | None:
     clausification = entailment_clausification(premises, conclusion)
     clauses = [flatten(clause) for clause in clausification.clauses]
     _, functions = _signature(literal.atom for clause in clausification.clauses for literal in clause.literals)
