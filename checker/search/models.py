@@ -111,34 +111,62 @@ def _atoms(statement: Clause | Formula):
 
 
 class _Encoding:
-    """Propositional variables for one domain size, numbered from 1."""
+    """Propositional variables for one domain size, numbered from 1: each
+    predicate and function symbol owns a block of numbers, one per tuple
+    of domain elements (a function's arguments followed by its value), so
+    that a ground literal's number is computed, not looked up."""
 
     def __init__(self, size: int):
         self.size = size
-        self.numbers: dict[tuple, int] = {}
+        self.blocks: dict[tuple[str, Symbol], tuple[int, int]] = {}
+        """(kind, symbol) -> (first number, tuple width)"""
+        self.count = 0
+
+    def _block(self, kind: str, symbol: Symbol) -> tuple[int, int]:
+        block = self.blocks.get((kind, symbol))
+        if block is None:
+            width = symbol[1] + (kind == "function")
+            block = self.blocks[(kind, symbol)] = (self.count + 1, width)
+            self.count += self.size**width
+        return block
+
+    def _weights(self, width: int) -> list[int]:
+        return [self.size ** (width - 1 - place) for place in range(width)]
 
     def number(self, key: tuple) -> int:
-        if key not in self.numbers:
-            self.numbers[key] = len(self.numbers) + 1
-        return self.numbers[key]
+        kind, symbol, arguments = key[:3]
+        first, width = self._block(kind, symbol)
+        places = (*arguments, *key[3:])
+        return first + sum(value * weight for value, weight in zip(places, self._weights(width)))
+
+    @property
+    def numbers(self) -> dict[tuple, int]:
+        """Every key with its number, for decoding a solver's model."""
+        found: dict[tuple, int] = {}
+        for (kind, symbol), (first, width) in self.blocks.items():
+            for offset, places in enumerate(product(range(self.size), repeat=width)):
+                if kind == "function":
+                    found[(kind, symbol, places[:-1], places[-1])] = first + offset
+                else:
+                    found[(kind, symbol, places)] = first + offset
+        return found
 
     def ground(self, clause: FlatClause) -> list[list[int]]:
+        equalities = []
+        compiled = []
+        for literal in clause.literals:
+            if literal.kind == "equality":
+                equalities.append((literal.arguments[0], literal.arguments[1], literal.positive))
+                continue
+            first, width = self._block(literal.kind, literal.symbol)
+            places = (*literal.arguments, literal.result) if literal.kind == "function" else literal.arguments
+            terms = tuple(zip(places, self._weights(width)))
+            compiled.append((1 if literal.positive else -1, first, terms))
         grounded = []
         for values in product(range(self.size), repeat=clause.variable_count):
-            propositional = []
-            for literal in clause.literals:
-                if literal.kind == "equality":
-                    if (values[literal.arguments[0]] == values[literal.arguments[1]]) == literal.positive:
-                        break
-                    continue
-                arguments = tuple(values[i] for i in literal.arguments)
-                if literal.kind == "predicate":
-                    key = ("predicate", literal.symbol, arguments)
-                else:
-                    key = ("function", literal.symbol, arguments, values[literal.result])
-                propositional.append(self.number(key) if literal.positive else -self.number(key))
-            else:
-                grounded.append(propositional)
+            if any((values[a] == values[b]) == positive for a, b, positive in equalities):
+                continue  # an equality literal true: the instance holds
+            grounded.append([sign * (first + sum(values[v] * w for v, w in terms)) for sign, first, terms in compiled])
         return grounded
 
     def function_tables(self, function: Symbol) -> list[list[int]]:
