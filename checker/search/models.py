@@ -15,6 +15,7 @@ size, ground clauses, solver conflicts), never by time.
 
 from __future__ import annotations
 
+from collections import OrderedDict
 from collections.abc import Sequence
 from dataclasses import dataclass
 from itertools import combinations, product
@@ -110,34 +111,62 @@ def _atoms(statement: Clause | Formula):
 
 
 class _Encoding:
-    """Propositional variables for one domain size, numbered from 1."""
+    """Propositional variables for one domain size, numbered from 1: each
+    predicate and function symbol owns a block of numbers, one per tuple
+    of domain elements (a function's arguments followed by its value), so
+    that a ground literal's number is computed, not looked up."""
 
     def __init__(self, size: int):
         self.size = size
-        self.numbers: dict[tuple, int] = {}
+        self.blocks: dict[tuple[str, Symbol], tuple[int, int]] = {}
+        """(kind, symbol) -> (first number, tuple width)"""
+        self.count = 0
+
+    def _block(self, kind: str, symbol: Symbol) -> tuple[int, int]:
+        block = self.blocks.get((kind, symbol))
+        if block is None:
+            width = symbol[1] + (kind == "function")
+            block = self.blocks[(kind, symbol)] = (self.count + 1, width)
+            self.count += self.size**width
+        return block
+
+    def _weights(self, width: int) -> list[int]:
+        return [self.size ** (width - 1 - place) for place in range(width)]
 
     def number(self, key: tuple) -> int:
-        if key not in self.numbers:
-            self.numbers[key] = len(self.numbers) + 1
-        return self.numbers[key]
+        kind, symbol, arguments = key[:3]
+        first, width = self._block(kind, symbol)
+        places = (*arguments, *key[3:])
+        return first + sum(value * weight for value, weight in zip(places, self._weights(width)))
+
+    @property
+    def numbers(self) -> dict[tuple, int]:
+        """Every key with its number, for decoding a solver's model."""
+        found: dict[tuple, int] = {}
+        for (kind, symbol), (first, width) in self.blocks.items():
+            for offset, places in enumerate(product(range(self.size), repeat=width)):
+                if kind == "function":
+                    found[(kind, symbol, places[:-1], places[-1])] = first + offset
+                else:
+                    found[(kind, symbol, places)] = first + offset
+        return found
 
     def ground(self, clause: FlatClause) -> list[list[int]]:
+        equalities = []
+        compiled = []
+        for literal in clause.literals:
+            if literal.kind == "equality":
+                equalities.append((literal.arguments[0], literal.arguments[1], literal.positive))
+                continue
+            first, width = self._block(literal.kind, literal.symbol)
+            places = (*literal.arguments, literal.result) if literal.kind == "function" else literal.arguments
+            terms = tuple(zip(places, self._weights(width)))
+            compiled.append((1 if literal.positive else -1, first, terms))
         grounded = []
         for values in product(range(self.size), repeat=clause.variable_count):
-            propositional = []
-            for literal in clause.literals:
-                if literal.kind == "equality":
-                    if (values[literal.arguments[0]] == values[literal.arguments[1]]) == literal.positive:
-                        break
-                    continue
-                arguments = tuple(values[i] for i in literal.arguments)
-                if literal.kind == "predicate":
-                    key = ("predicate", literal.symbol, arguments)
-                else:
-                    key = ("function", literal.symbol, arguments, values[literal.result])
-                propositional.append(self.number(key) if literal.positive else -self.number(key))
-            else:
-                grounded.append(propositional)
+            if any((values[a] == values[b]) == positive for a, b, positive in equalities):
+                continue  # an equality literal true: the instance holds
+            grounded.append([sign * (first + sum(values[v] * w for v, w in terms)) for sign, first, terms in compiled])
         return grounded
 
     def function_tables(self, function: Symbol) -> list[list[int]]:
@@ -167,6 +196,17 @@ def solve(problem: list[list[int]], conflicts: int) -> set[int] | bool | None:
         return {n for n in solver.get_model() if n > 0}
 
 
+_FOUND: OrderedDict[tuple, tuple[int, int, Interpretation]] = OrderedDict()
+"""Counter-models found lately, by premises and conclusion, with the
+ground-clause and conflict bounds they were found under: the search
+screens a step with small bounds before the checker asks again with its
+own.  Domain sizes are tried in order and the solver is deterministic, so
+a search with bounds at least as large finds the same model; only then is
+the remembered one returned, and a result never depends on what was
+asked before."""
+_REMEMBERED = 256
+
+
 def find_countermodel(
     premises: Sequence[Clause | Formula],
     conclusion: Clause | Formula,
@@ -178,6 +218,21 @@ def find_countermodel(
     in which the premises are true and the conclusion false, or None when
     there is none that small or a bound (``limit`` ground clauses per
     domain size, ``conflicts`` solver conflicts) was reached first."""
+    key = (tuple(premises), conclusion)
+    known = _FOUND.get(key)
+    if known is not None and known[0] <= limit and known[1] <= conflicts and known[2].size <= max_domain:
+        return known[2]
+    found = _search(premises, conclusion, max_domain, limit, conflicts)
+    if found is not None:
+        _FOUND[key] = (limit, conflicts, found)
+        if len(_FOUND) > _REMEMBERED:
+            _FOUND.popitem(last=False)
+    return found
+
+
+def _search(
+    premises: Sequence[Clause | Formula], conclusion: Clause | Formula, max_domain: int, limit: int, conflicts: int
+) -> Interpretation | None:
     clausification = entailment_clausification(premises, conclusion)
     clauses = [flatten(clause) for clause in clausification.clauses]
     _, functions = _signature(literal.atom for clause in clausification.clauses for literal in clause.literals)

@@ -42,6 +42,7 @@ from checker.search.evidence import (
     reindexed,
     with_premise_substitutions,
 )
+from checker.search.models import find_countermodel
 from checker.search.normal_forms import find_normal_form_chain
 from checker.search.saturation import refute
 from checker.search.subsumption import find_theta
@@ -71,6 +72,11 @@ class SearchLimits:
     """choices explored when pairing new Skolem symbols with quantifiers"""
     sat_conflicts: int = 100000
     """conflicts the SAT solver may meet on a propositional step"""
+    screen_domain: int = 3
+    """largest domain of the counter-model screen run before the costly
+    searches (0: no screen)"""
+    screen_ground_clauses: int = 20000
+    """ground clauses per domain size the screen may build"""
 
     def scaled(self, factor: float) -> SearchLimits:
         """Every bound multiplied by ``factor`` (at least 1 each)."""
@@ -303,11 +309,36 @@ class _Search:
         return Candidate(describe(self.premises, evidence), attempt.computed, self.claimed, missing, extra, message)
 
 
-def _run(search: _Search, rule_hint: str) -> Reconstruction:
-    for stage in (lambda: search.single(rule_hint), search.chain, search.refutation):
-        found = stage()
-        if found is not None:
-            return found
+class _Screen:
+    """Whether a small counter-model shows the claim does not follow from
+    the premises, looked for once per step and only when the cheap stage
+    failed.  A kernel-confirmed counter-model means no evidence exists, so
+    the costly chain and refutation searches are skipped; the outcome is
+    the same, found sooner (wrong candidates are common, e.g. the options
+    tried for an unstated nested conclusion)."""
+
+    def __init__(self, premises: Sequence[Clause], claimed: Clause, limits: SearchLimits):
+        self.premises, self.claimed, self.limits = premises, claimed, limits
+        self.verdict: bool | None = None
+
+    def hopeless(self) -> bool:
+        if self.verdict is None:
+            limits = self.limits
+            self.verdict = limits.screen_domain > 0 and find_countermodel(
+                self.premises, self.claimed, limits.screen_domain, limits.screen_ground_clauses, limits.screen_ground_clauses
+            ) is not None
+        return self.verdict
+
+
+def _run(search: _Search, rule_hint: str, screen: _Screen) -> Reconstruction:
+    found = search.single(rule_hint)
+    if found is not None:
+        return found
+    if not screen.hopeless():
+        for stage in (search.chain, search.refutation):
+            found = stage()
+            if found is not None:
+                return found
     return Reconstruction(None, IDENTITY, search.closest())
 
 
@@ -325,16 +356,19 @@ def reconstruct(
     premises = list(premises)
     given = list(stated) if stated is not None else []
     given = (given + [None] * len(premises))[: len(premises)]
+    screen = _Screen(premises, claimed, limits)
     if not any(bindings is not None for bindings in given):
         none = [None] * len(premises)
-        return _run(_Search(premises, claimed, none, limits, premises), rule_hint)
+        return _run(_Search(premises, claimed, none, limits, premises), rule_hint, screen)
+    # The stated instances are weaker than the premises: a counter-model of
+    # the premises is one of the instances too, and the screen is shared.
     instances = [p if b is None else p.instance(b) for p, b in zip(premises, given)]
-    found = _run(_Search(premises, claimed, given, limits, instances), rule_hint)
+    found = _run(_Search(premises, claimed, given, limits, instances), rule_hint, screen)
     if found.evidence is not None:
         return found
     # Nothing fits the stated bindings: if the step holds without them, say
     # that the bindings are what is wrong.
-    free = _run(_Search(premises, claimed, [None] * len(premises), limits, premises), rule_hint)
+    free = _run(_Search(premises, claimed, [None] * len(premises), limits, premises), rule_hint, screen)
     if free.evidence is None:
         return found
     wrong = stated_disagreement(premises, given, free.evidence) or "the stated bindings do not fit the inference"

@@ -323,3 +323,14 @@ def test_first_order_counter_models_are_found_at_the_smallest_size(premises, con
     else:
         assert_countermodel(model, premises, conclusion)
         assert model.size == smallest
+
+
+def test_a_remembered_counter_model_is_reused_only_under_bounds_at_least_as_large():
+    # The same question asked under larger then smaller bounds: the answer
+    # under the smaller ones must not depend on what was asked before.
+    premises = [forall([X], binary(IMPLIES, valve_open(X), sensor_ok(X)))]
+    conclusion = forall([X], binary(IMPLIES, sensor_ok(X), valve_open(X)))
+    assert find_countermodel(premises, conclusion, limit=100) is not None
+    assert find_countermodel(premises, conclusion, limit=3) is None
+    assert find_countermodel(premises, conclusion, limit=4) is not None
+    assert find_countermodel(premises, conclusion, limit=4, max_domain=0) is None

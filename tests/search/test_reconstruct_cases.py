@@ -144,3 +144,28 @@ def test_saturation_keeps_only_the_ancestors_of_the_empty_clause():
     assert chain is not None
     assert len(chain.steps) == 2  # two resolutions; nothing about the noise
     assert check_clause_step(clauses, Clause([]), Refutation(chain)) is None
+
+
+def test_a_claim_with_a_small_counter_model_skips_the_costly_searches(monkeypatch):
+    # Common practice: a counter-model of premises -> claim means no evidence
+    # exists.  Here crate1 stands in the dock and the claim puts it in the yard.
+    premises = [Clause([P("at", crate1, dock)]), Clause([N("at", X, yard), P("ships", X)])]
+    claimed = Clause([P("at", crate1, yard)])
+    import checker.search.reconstruct as module
+
+    calls = []
+    monkeypatch.setattr(module, "refute", lambda *args: calls.append(args))
+    screened = reconstruct(premises, claimed)
+    assert screened.evidence is None and screened.closest is not None
+    assert calls == []  # the refutation search never ran
+    unscreened = reconstruct(premises, claimed, limits=SearchLimits(screen_domain=0))
+    assert unscreened.evidence is None and len(calls) == 1
+    assert screened.closest.computed == unscreened.closest.computed
+
+
+def test_the_screen_leaves_a_step_that_follows_to_the_searches():
+    # Two rewrites (a chain): no counter-model exists, and the chain is found.
+    target = Clause([P("ships", fn("next", fn("next", dock)))])
+    premises = [target, Clause([eq(fn("next", dock), yard)]), Clause([eq(fn("next", yard), gate)])]
+    found = reconstruct(premises, Clause([P("ships", gate)]))
+    assert isinstance(found.evidence, Chain)
