@@ -33,6 +33,9 @@ def _derivations() -> list[Path]:
     axiom files) and JSON Lines certificates."""
     found = []
     for path in sorted(FIXTURES.rglob("*")):
+        if "prover_corpus" in path.parts:
+            continue  # minutes each: tests/checker/test_prover_corpus.py and bench/bench_prover_corpus.py
+
         problem = path.name == "problem.p" or path.name.endswith("_problem.p")
         if path.suffix == ".jsonl" or (path.suffix == ".p" and not problem):
             found.append(path)
