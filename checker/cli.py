@@ -9,6 +9,7 @@ from dataclasses import fields, replace
 
 import click
 
+from checker.inspect_commands import extract_command
 from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
 from checker.record import check_record
 from checker.report import SAFETY_NOTE, render_json, render_text
@@ -104,3 +105,6 @@ def check_command(
         except OSError as error:
             raise click.FileError(record_path, hint=error.strerror or str(error)) from None
     sys.exit(EXIT_CODES[worst([report.verdict for report in reports])])
+
+
+main.add_command(extract_command)

@@ -114,6 +114,9 @@ class Reconstruction:
     description: str = ""
     wrong_bindings: bool = False
     """the step holds, but not with the bindings the derivation states"""
+    tried: tuple[str, ...] = ()
+    """what the search tried, in order, and what each stage came to (for
+    ``assay explain``)"""
 
 
 # Stated bindings -----------------------------------------------------------
@@ -227,6 +230,7 @@ class _Search:
     searched: Sequence[Clause]  # the premises, or their stated instances
     best: tuple[int, int, Attempt] | None = None
     seeds: list[Seed] = field(default_factory=list)
+    tried: list[str] = field(default_factory=list)
 
     def accept(self, evidence: Evidence, theta: Substitution) -> bool:
         """The last word: stated bindings honoured, and the kernel agrees."""
@@ -247,17 +251,22 @@ class _Search:
 
     def single(self, rule_hint: str) -> Reconstruction | None:
         near: list[tuple[int, int, Attempt]] = []
+        examined = 0
         for number, attempt in enumerate(candidates(self.searched, rule_hint)):
             if number >= self.limits.candidates:
                 break
+            examined += 1
             theta = find_theta(attempt.computed, self.claimed, self.limits.subsumption_nodes)
             if theta is not None:
                 evidence, theta = self.lift(attempt.evidence, theta)
                 if self.accept(evidence, theta):
+                    self.tried.append(f"single inference: candidate {examined} subsumes the claim")
                     return Reconstruction(evidence, theta, None, describe(self.premises, evidence))
                 continue
             missing, extra = _difference(attempt.computed, self.claimed)
             near.append((len(missing) + len(extra), number, attempt))
+        bound = " (the bound)" if examined >= self.limits.candidates else ""
+        self.tried.append(f"single inference: {examined} candidates{bound}, none subsumes the claim")
         near.sort(key=lambda item: item[:2])
         if near:
             self.best = near[0]
@@ -270,12 +279,15 @@ class _Search:
             self.searched, self.claimed, seeds, self.limits.rewrite_steps, self.limits.subsumption_nodes
         ) or find_normal_form_chain(self.searched, self.claimed, self.limits.rewrite_steps, self.limits.subsumption_nodes)
         if found is None:
+            self.tried.append(f"chain of rewrites and deletions: none within {self.limits.rewrite_steps} expansions")
             return None
         chain, theta = found
         if any(given is not None for given in self.stated):
             chain = _prefixed(chain, self.stated, len(self.premises), 0)
         if not self.accept(chain, theta):
+            self.tried.append("chain of rewrites and deletions: found one the kernel did not accept")
             return None
+        self.tried.append(f"chain of rewrites and deletions: {len(chain.steps)} inferences")
         return Reconstruction(chain, theta, None, f"chain of {len(chain.steps)} inferences")
 
     def refutation(self) -> Reconstruction | None:
@@ -287,12 +299,18 @@ class _Search:
             self.limits.subsumption_nodes,
         )
         if chain is None:
+            self.tried.append(
+                f"refutation of the premises and the negated claim: none within {self.limits.saturation_given} "
+                f"given clauses and {self.limits.saturation_clauses} generated"
+            )
             return None
         if any(given is not None for given in self.stated):
             chain = _prefixed(chain, self.stated, len(self.premises), len(negation))
         evidence = Refutation(chain)
         if not self.accept(evidence, IDENTITY):
+            self.tried.append("refutation of the premises and the negated claim: found one the kernel did not accept")
             return None
+        self.tried.append(f"refutation of the premises and the negated claim: {len(chain.steps)} inferences")
         return Reconstruction(
             evidence, IDENTITY, None, f"refutation of the premises and the negated claim in {len(chain.steps)} inferences"
         )
@@ -333,13 +351,18 @@ class _Screen:
 def _run(search: _Search, rule_hint: str, screen: _Screen) -> Reconstruction:
     found = search.single(rule_hint)
     if found is not None:
-        return found
-    if not screen.hopeless():
+        return replace(found, tried=tuple(search.tried))
+    if screen.hopeless():
+        search.tried.append(f"counter-model screen (domain up to {search.limits.screen_domain}): a counter-model "
+                            "exists, so no evidence can; the chain and refutation searches were skipped")
+    else:
+        if search.limits.screen_domain > 0:
+            search.tried.append(f"counter-model screen (domain up to {search.limits.screen_domain}): none found")
         for stage in (search.chain, search.refutation):
             found = stage()
             if found is not None:
-                return found
-    return Reconstruction(None, IDENTITY, search.closest())
+                return replace(found, tried=tuple(search.tried))
+    return Reconstruction(None, IDENTITY, search.closest(), tried=tuple(search.tried))
 
 
 def reconstruct(
@@ -364,17 +387,19 @@ def reconstruct(
     # the premises is one of the instances too, and the screen is shared.
     instances = [p if b is None else p.instance(b) for p, b in zip(premises, given)]
     found = _run(_Search(premises, claimed, given, limits, instances), rule_hint, screen)
+    found = replace(found, tried=tuple(f"on the stated instances: {line}" for line in found.tried))
     if found.evidence is not None:
         return found
     # Nothing fits the stated bindings: if the step holds without them, say
     # that the bindings are what is wrong.
     free = _run(_Search(premises, claimed, [None] * len(premises), limits, premises), rule_hint, screen)
+    tried = (*found.tried, *(f"without the stated bindings: {line}" for line in free.tried))
     if free.evidence is None:
-        return found
+        return replace(found, tried=tried)
     wrong = stated_disagreement(premises, given, free.evidence) or "the stated bindings do not fit the inference"
     computed = _computed(premises, claimed, free.evidence, free.theta)
     candidate = Candidate(free.description, computed, claimed, (), (), wrong)
-    return Reconstruction(None, IDENTITY, candidate, wrong_bindings=True)
+    return Reconstruction(None, IDENTITY, candidate, wrong_bindings=True, tried=tried)
 
 
 def _computed(premises: Sequence[Clause], claimed: Clause, evidence: Evidence, theta: Substitution) -> Clause:
