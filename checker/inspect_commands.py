@@ -10,8 +10,8 @@ import sys
 
 import click
 
-from checker.outcomes import EXIT_USAGE
 from checker.opened import OpenedDerivation, open_derivation, unknown_step_message
+from checker.outcomes import EXIT_USAGE
 from formats.derivation import UnreadableInput
 
 _PROBLEM = click.option("--problem", "problem", type=click.Path(dir_okay=False),
@@ -40,6 +40,27 @@ def _write(path: str, text: str) -> None:
             out.write(text)
     except OSError as error:
         _refuse(f"{path}: cannot write: {error.strerror or error}")
+
+
+@click.command("explain")
+@click.argument("derivation", type=click.Path(dir_okay=False))
+@click.argument("step")
+@_PROBLEM
+@_INCLUDES
+def explain_command(derivation, step, problem, include_dirs) -> None:
+    """Lay STEP of DERIVATION open: premises and claim as written, what was
+    tried, the evidence found or the exact failure point, the counter-model.
+    A nested record is named outer/1, outer/2 ..."""
+    from checker.explain import explain, render_explanation
+    from checker.run import check
+
+    opened = _opened(derivation, problem, include_dirs)
+    if step not in opened.steps:
+        _refuse(unknown_step_message(opened, step))
+    report = check(derivation, opened.problem_path, include_dirs)
+    if report.error:
+        _refuse(report.error)
+    click.echo(render_explanation(explain(opened, report, step), styled=sys.stdout.isatty()))
 
 
 @click.command("extract")
