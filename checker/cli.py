@@ -9,7 +9,7 @@ from dataclasses import fields, replace
 
 import click
 
-from checker.inspect_commands import explain_command, extract_command
+from checker.inspect_commands import explain_command, extract_command, graph_command
 from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
 from checker.record import check_record
 from checker.report import SAFETY_NOTE, render_json, render_text
@@ -109,3 +109,4 @@ def check_command(
 
 main.add_command(explain_command)
 main.add_command(extract_command)
+main.add_command(graph_command)

@@ -167,9 +167,13 @@ def _clause_search(step: Step, premises: list[Clause], claimed: Clause, limits: 
     }
 
 
-def explain(opened: OpenedDerivation, report: Report, name: str, limits: SearchLimits = DEFAULT_LIMITS) -> Explanation:
+def explain(
+    opened: OpenedDerivation, report: Report, name: str, limits: SearchLimits = DEFAULT_LIMITS, search: bool = True
+) -> Explanation:
     """The explanation of step ``name`` (which must be a step of the plan),
-    given the report of checking the whole derivation."""
+    given the report of checking the whole derivation; with ``search``
+    False, a clause step's evidence search is not run again (the check's
+    own result is still shown)."""
     step = opened.steps[name]
     results = {result.name: result for result in report.steps}
     result = results.get(name)
@@ -186,7 +190,7 @@ def explain(opened: OpenedDerivation, report: Report, name: str, limits: SearchL
     )
     if name in opened.plan.faults:
         found = {"tried": ("nothing: the derivation's structure rules the step out before any inference is replayed",)}
-    elif is_clause_step:
+    elif is_clause_step and search:
         found = _clause_search(step, [parent.content for parent in parents], statement.content, limits)
     return Explanation(
         name,

@@ -6,6 +6,7 @@ unknown step names exit 2 with the place, never a traceback.
 
 from __future__ import annotations
 
+import os
 import sys
 
 import click
@@ -85,3 +86,40 @@ def extract_command(derivation, step, output, with_model, problem, include_dirs)
     _write(output, reproducer.text)
     click.echo(f"wrote {output}: {len(reproducer.axioms)} axioms and the conjecture `{step}`"
                + (", with a counter-model" if reproducer.countermodel is not None else ""))
+
+
+@click.command("graph")
+@click.argument("derivation", type=click.Path(dir_okay=False))
+@click.option("-o", "--output", "output", required=True, type=click.Path(dir_okay=False),
+              help="The picture to write: .dot (needs no Graphviz), .svg or .html (need Graphviz's dot).")
+@_PROBLEM
+@_INCLUDES
+def graph_command(derivation, output, problem, include_dirs) -> None:
+    """Draw DERIVATION as a layered graph from its leaves to $false, each
+    step coloured by outcome, the first failure marked, unused steps faded;
+    HTML adds a table of steps and each step's explanation on a click."""
+    from checker.graph import GraphvizMissing, proof_graph, render_html, render_svg, to_dot
+    from checker.run import check
+
+    kind = os.path.splitext(output)[1].lower()
+    if kind not in (".dot", ".gv", ".svg", ".html", ".htm"):
+        _refuse(f"{output}: the picture is written as .dot, .svg or .html; say which by the file's extension")
+    opened = _opened(derivation, problem, include_dirs)
+    report = check(derivation, opened.problem_path, include_dirs)
+    if report.error:
+        _refuse(report.error)
+    picture = proof_graph(opened, report)
+    title = f"{os.path.basename(derivation)}: {report.verdict}"
+    try:
+        if kind in (".dot", ".gv"):
+            text = to_dot(picture, title).source
+        elif kind == ".svg":
+            text = render_svg(to_dot(picture, title))
+        else:
+            text = render_html(opened, report, picture, title)
+    except GraphvizMissing as missing:
+        _refuse(str(missing))
+    _write(output, text)
+    failure = report.first_failure
+    click.echo(f"wrote {output}: {len(picture.nodes)} steps, {report.verdict}"
+               + (f", first failure {failure.name}" if failure is not None else ""))
