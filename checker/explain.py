@@ -18,15 +18,21 @@ from dataclasses import dataclass
 
 import click
 
+from checker.formula_steps import as_formula
+from checker.freshness import new_symbols
 from checker.kernel.clauses import Clause
+from checker.kernel.entailment import check_entailment, entailment_clauses
 from checker.kernel.failure import Failure, quote
+from checker.kernel.formulas import alpha_equivalent
 from checker.kernel.rules import Chain, Refutation, check_clause_step, negated_claim, replay
 from checker.kernel.substitution import IDENTITY
-from checker.opened import OpenedDerivation
+from checker.opened import OpenedDerivation, claimed_status, resolved_premises
 from checker.outcomes import FAILED, REFUTED, UNPROVEN, Report, StepResult
 from checker.plan import Step
+from checker.search.entailment import find_entailment
 from checker.search.evidence import describe
 from checker.search.reconstruct import DEFAULT_LIMITS, Evidence, SearchLimits, reconstruct
+from checker.statuses import CONSEQUENCE_STATUSES
 from formats.derivation import Origin
 
 BOTH, PRODUCED_ONLY, CLAIMED_ONLY = " ", "-", "+"
@@ -167,6 +173,33 @@ def _clause_search(step: Step, premises: list[Clause], claimed: Clause, limits: 
     }
 
 
+SHOWN_INFERENCES = 40
+
+
+def _formula_search(premises: list, claimed, limits: SearchLimits) -> dict:
+    """What the consequence check of a formula step tries: a premise
+    alpha-equivalent to the claim, then a refutation of
+    clausify(premises ∧ ¬claim) replayed by the kernel."""
+    formulas = [as_formula(premise) for premise in premises]
+    conclusion = as_formula(claimed)
+    if any(alpha_equivalent(premise, conclusion) for premise in formulas):
+        return {"tried": ("alpha-equivalence with a premise: found",)}
+    tried = ["alpha-equivalence with a premise: none"]
+    clauses = entailment_clauses(formulas, conclusion)
+    chain = find_entailment(formulas, conclusion, limits)
+    if chain is None or check_entailment(formulas, conclusion, chain) is not None:
+        tried.append(f"refutation of the {len(clauses)} clauses of premises and negated claim: none within "
+                     f"{limits.saturation_given} given clauses")
+        return {"tried": tuple(tried)}
+    tried.append(f"refutation of the {len(clauses)} clauses of premises and negated claim: "
+                 f"{len(chain.steps)} inferences")
+    lines = [f"[{number}] {quote(clause)}" for number, clause in enumerate(clauses)]
+    lines += evidence_lines(clauses, Clause(()), chain)
+    if len(lines) > SHOWN_INFERENCES:
+        lines = lines[:SHOWN_INFERENCES] + [f"... and {len(lines) - SHOWN_INFERENCES} more lines"]
+    return {"tried": tuple(tried), "evidence": tuple(lines), "kernel": "accepted"}
+
+
 def explain(
     opened: OpenedDerivation, report: Report, name: str, limits: SearchLimits = DEFAULT_LIMITS, search: bool = True
 ) -> Explanation:
@@ -192,6 +225,14 @@ def explain(
         found = {"tried": ("nothing: the derivation's structure rules the step out before any inference is replayed",)}
     elif is_clause_step and search:
         found = _clause_search(step, [parent.content for parent in parents], statement.content, limits)
+    elif search and statement is not None and not step.is_leaf:
+        resting_on = [opened.statements.get(name) for name in resolved_premises(opened, step)]
+        if _plain_consequence(claimed_status(opened, step), statement, resting_on):
+            found = _formula_search([parent.content for parent in resting_on], statement.content, limits)
+            names = resolved_premises(opened, step)
+            if tuple(names) != step.parents:
+                found["tried"] = (f"premises: the statements under its nested records, {', '.join(names)}",
+                                  *found["tried"])
     return Explanation(
         name,
         str(step.location),
@@ -212,6 +253,16 @@ def explain(
 
 
 # The closest-candidate lines of a result's details, shown above from the search itself.
+def _plain_consequence(status: str, statement, parents: Sequence) -> bool:
+    """A step that claims consequence of stated, non-conjecture premises
+    and introduces no symbol: checked as an entailment alone."""
+    if status not in CONSEQUENCE_STATUSES or not parents:
+        return False
+    if any(parent is None or parent.role == "conjecture" for parent in parents):
+        return False
+    return not new_symbols(statement.content, [parent.content for parent in parents])
+
+
 _CANDIDATE_LINES = ("closest candidate: ", "computed: ", "claimed:  ", "produced but not claimed: ",
                     "claimed but not produced: ", "kernel: ")
 

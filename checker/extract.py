@@ -18,10 +18,10 @@ from checker.formula_steps import as_formula
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import Formula, negation
 from checker.kernel.models import Interpretation, confirm_countermodel, render_countermodel
-from checker.opened import OpenedDerivation, cited_problem_statement, resolved_premises
+from checker.opened import OpenedDerivation, cited_problem_statement, claimed_status, resolved_premises
 from checker.plan import Step
 from checker.search.models import find_countermodel
-from checker.statuses import CONSEQUENCE_STATUSES, weakest_status
+from checker.statuses import CONSEQUENCE_STATUSES
 
 AXIOM_ROLES = frozenset({"axiom", "hypothesis", "definition", "assumption", "lemma", "theorem", "corollary"})
 
@@ -111,21 +111,6 @@ def _negated_by_records(opened: OpenedDerivation, step: Step) -> set[str]:
     return negated
 
 
-def _status(opened: OpenedDerivation, step: Step) -> str:
-    """What the step claims, under its nested records too: a Skolemization
-    nested under a ``thm`` record claims only satisfiability."""
-    if step.is_leaf:
-        return "thm"
-    statuses = [step.inference.status]
-    stack = list(step.parents)
-    while stack:
-        inner = opened.steps.get(stack.pop())
-        if inner is not None and inner.statement is None:
-            statuses.append(inner.inference.status)
-            stack.extend(inner.parents)
-    return weakest_status(statuses)
-
-
 def extract(opened: OpenedDerivation, name: str, with_model: bool = False) -> Reproducer | NoReproducer:
     """The reproducer of step ``name``; with ``with_model``, a kernel-confirmed
     counter-model (premises true, conclusion false) is looked for and added
@@ -144,7 +129,7 @@ def extract(opened: OpenedDerivation, name: str, with_model: bool = False) -> Re
         return found
     axioms, notes = found
     conjecture = as_formula(step.statement.content)
-    status = _status(opened, step)
+    status = claimed_status(opened, step)
     model = None
     if with_model:
         formulas = [formula for _, formula in axioms]

@@ -16,6 +16,7 @@ from dataclasses import dataclass
 
 from checker.plan import Plan, Step, make_plan, with_cited_problem_statements
 from checker.run import cited_problems, discover_problem, read_document
+from checker.statuses import weakest_status
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.tptp import read_tptp
 
@@ -83,3 +84,18 @@ def cited_problem_statement(opened: OpenedDerivation, step: Step) -> Statement |
     if opened.problem is None or not isinstance(source, Origin) or source.kind != "file" or len(source.detail) < 2:
         return None
     return next((s for s in opened.problem.statements if s.name == source.detail[1]), None)
+
+
+def claimed_status(opened: OpenedDerivation, step: Step) -> str:
+    """What the step claims, under its nested records too: a Skolemization
+    nested under a ``thm`` record claims only satisfiability."""
+    if step.is_leaf:
+        return "thm"
+    statuses = [step.inference.status]
+    stack = list(step.parents)
+    while stack:
+        inner = opened.steps.get(stack.pop())
+        if inner is not None and inner.statement is None:
+            statuses.append(inner.inference.status)
+            stack.extend(inner.parents)
+    return weakest_status(statuses)

@@ -106,3 +106,20 @@ def test_colour_only_when_asked_for_a_terminal(monkeypatch):
     assert "\x1b[" in render_explanation(explanation, styled=True)
     assert "\x1b[" not in render_explanation(explanation, styled=False)
     assert "\x1b[" not in _explain_text(path, "d2", monkeypatch)  # not a terminal
+
+
+def test_a_formula_step_under_nested_records_shows_the_replayed_refutation(monkeypatch):
+    text = _explain_text(f"{DERIVATIONS}/valve_sensor_nested_skolemize/proof.p", "c_0_5", monkeypatch)
+    # Renaming the variables of sensors_report: clausify(premise ∧ ¬claim) is refuted by resolution (worked by hand).
+    assert "1. premises: the statements under its nested records, sensors_report" in text
+    assert "3. refutation of the 4 clauses of premises and negated claim: 3 inferences" in text
+    assert text.rstrip().endswith("kernel: accepted")
+    assert "`$false`" in text
+
+
+def test_a_refuted_formula_step_shows_what_was_tried_and_the_counter_model(monkeypatch):
+    text = _explain_text(f"{DERIVATIONS}/reactor_coolant_scram/mutant_formula_literal_dropped.p", "f2", monkeypatch)
+    # The claim drops the low_coolant_flow guard: a reactor with normal flow and no scram falsifies it.
+    assert "outcome: refuted" in text
+    assert "2. refutation of the 4 clauses of premises and negated claim: none within 60 given clauses" in text
+    assert "  low_coolant_flow = {}" in text and "  falsified: ~ reactor(0) | scrammed(0)" in text
