@@ -14,7 +14,7 @@ step alone to report its stages, as data returned by the search.
 from __future__ import annotations
 
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import click
 
@@ -72,6 +72,16 @@ class Explanation:
     """the kernel's word on the closest candidate or on stated evidence"""
     countermodel: tuple[str, ...] = ()
     details: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True, slots=True)
+class Account:
+    """What a search run again for the explanation tried and found."""
+
+    tried: tuple[str, ...] = ()
+    evidence: tuple[str, ...] = ()
+    comparison: tuple[tuple[str, str], ...] = ()
+    kernel: str = ""
 
 
 def _premises(opened: OpenedDerivation, step: Step, results: dict[str, StepResult]) -> tuple[Premise, ...]:
@@ -138,7 +148,7 @@ def compared(computed: Clause, claimed: Clause) -> tuple[tuple[str, str], ...]:
     return tuple(marks)
 
 
-def _clause_search(step: Step, premises: list[Clause], claimed: Clause, limits: SearchLimits) -> dict:
+def _clause_search(step: Step, premises: list[Clause], claimed: Clause, limits: SearchLimits) -> Account:
     """What the evidence search tries and finds for a clause step, or what
     the kernel says of the evidence the certificate states."""
     inference = step.inference
@@ -146,58 +156,57 @@ def _clause_search(step: Step, premises: list[Clause], claimed: Clause, limits: 
         theta = inference.theta or IDENTITY
         failure = check_clause_step(premises, claimed, inference.evidence, theta)
         computed = replay(premises, inference.evidence) if not isinstance(inference.evidence, Refutation) else None
-        return {
-            "tried": ("the certificate states its evidence: replayed by the kernel, no search",),
-            "evidence": tuple(evidence_lines(premises, claimed, inference.evidence)),
-            "comparison": compared(computed.instance(theta), claimed)
-            if failure is not None and isinstance(computed, Clause) else (),
-            "kernel": "accepted" if failure is None else f"{failure.reason}: {failure.message}",
-        }
+        return Account(
+            ("the certificate states its evidence: replayed by the kernel, no search",),
+            tuple(evidence_lines(premises, claimed, inference.evidence)),
+            compared(computed.instance(theta), claimed) if failure is not None and isinstance(computed, Clause) else (),
+            "accepted" if failure is None else f"{failure.reason}: {failure.message}",
+        )
     found = reconstruct(premises, claimed, rule_hint=inference.rule, limits=limits, stated=step.bindings)
     if found.evidence is not None:
         lines = evidence_lines(premises, claimed, found.evidence)
         if found.theta is not IDENTITY and found.theta.mapping:
             lines.append(f"conclusion test: theta {found.theta} maps the computed clause into the claimed one")
-        return {"tried": found.tried, "evidence": tuple(lines), "kernel": "accepted"}
+        return Account(found.tried, tuple(lines), (), "accepted")
     closest = found.closest
     if closest is None:
-        return {"tried": found.tried}
+        return Account(found.tried)
     extra = set(closest.extra)
     comparison = [(CLAIMED_ONLY if literal in extra else BOTH, str(literal)) for literal in closest.claimed.literals]
     comparison += [(PRODUCED_ONLY, str(literal)) for literal in closest.missing if literal not in extra]
-    return {
-        "tried": found.tried,
-        "evidence": (f"closest candidate: {closest.description}", f"computed: {quote(closest.computed)}"),
-        "comparison": tuple(comparison),
-        "kernel": closest.message,
-    }
+    return Account(
+        found.tried,
+        (f"closest candidate: {closest.description}", f"computed: {quote(closest.computed)}"),
+        tuple(comparison),
+        closest.message,
+    )
 
 
 SHOWN_INFERENCES = 40
 
 
-def _formula_search(premises: list, claimed, limits: SearchLimits) -> dict:
+def _formula_search(premises: list, claimed, limits: SearchLimits) -> Account:
     """What the consequence check of a formula step tries: a premise
     alpha-equivalent to the claim, then a refutation of
     clausify(premises ∧ ¬claim) replayed by the kernel."""
     formulas = [as_formula(premise) for premise in premises]
     conclusion = as_formula(claimed)
     if any(alpha_equivalent(premise, conclusion) for premise in formulas):
-        return {"tried": ("alpha-equivalence with a premise: found",)}
+        return Account(("alpha-equivalence with a premise: found",), (), (), "accepted")
     tried = ["alpha-equivalence with a premise: none"]
     clauses = entailment_clauses(formulas, conclusion)
     chain = find_entailment(formulas, conclusion, limits)
     if chain is None or check_entailment(formulas, conclusion, chain) is not None:
         tried.append(f"refutation of the {len(clauses)} clauses of premises and negated claim: none within "
                      f"{limits.saturation_given} given clauses")
-        return {"tried": tuple(tried)}
+        return Account(tuple(tried))
     tried.append(f"refutation of the {len(clauses)} clauses of premises and negated claim: "
                  f"{len(chain.steps)} inferences")
     lines = [f"[{number}] {quote(clause)}" for number, clause in enumerate(clauses)]
     lines += evidence_lines(clauses, Clause(()), chain)
     if len(lines) > SHOWN_INFERENCES:
         lines = lines[:SHOWN_INFERENCES] + [f"... and {len(lines) - SHOWN_INFERENCES} more lines"]
-    return {"tried": tuple(tried), "evidence": tuple(lines), "kernel": "accepted"}
+    return Account(tuple(tried), tuple(lines), (), "accepted")
 
 
 def explain(
@@ -214,7 +223,7 @@ def explain(
     claimed = str(statement.content) if statement is not None else None
     premises = _premises(opened, step, results)
     countermodel, details = _countermodel_lines(result.details) if result is not None else ((), ())
-    found: dict = {}
+    found = Account()
     parents = [opened.statements.get(parent) for parent in step.parents]
     is_clause_step = (
         step.inference is not None and statement is not None and isinstance(statement.content, Clause)
@@ -222,17 +231,17 @@ def explain(
         and not any(parent.role == "conjecture" for parent in parents)
     )
     if name in opened.plan.faults:
-        found = {"tried": ("nothing: the derivation's structure rules the step out before any inference is replayed",)}
+        found = Account(("nothing: the derivation's structure rules the step out before any inference is replayed",))
     elif is_clause_step and search:
         found = _clause_search(step, [parent.content for parent in parents], statement.content, limits)
     elif search and statement is not None and not step.is_leaf:
-        resting_on = [opened.statements.get(name) for name in resolved_premises(opened, step)]
+        names = resolved_premises(opened, step)
+        resting_on = [opened.statements.get(parent) for parent in names]
         if _plain_consequence(claimed_status(opened, step), statement, resting_on):
             found = _formula_search([parent.content for parent in resting_on], statement.content, limits)
-            names = resolved_premises(opened, step)
             if tuple(names) != step.parents:
-                found["tried"] = (f"premises: the statements under its nested records, {', '.join(names)}",
-                                  *found["tried"])
+                under = f"premises: the statements under its nested records, {', '.join(names)}"
+                found = replace(found, tried=(under, *found.tried))
     return Explanation(
         name,
         str(step.location),
@@ -243,16 +252,15 @@ def explain(
         premises,
         claimed,
         result,
-        tuple(found.get("tried", ())),
-        tuple(found.get("evidence", ())),
-        tuple(found.get("comparison", ())),
-        found.get("kernel", ""),
+        found.tried,
+        found.evidence,
+        found.comparison,
+        found.kernel,
         countermodel,
         details,
     )
 
 
-# The closest-candidate lines of a result's details, shown above from the search itself.
 def _plain_consequence(status: str, statement, parents: Sequence) -> bool:
     """A step that claims consequence of stated, non-conjecture premises
     and introduces no symbol: checked as an entailment alone."""
@@ -263,6 +271,7 @@ def _plain_consequence(status: str, statement, parents: Sequence) -> bool:
     return not new_symbols(statement.content, [parent.content for parent in parents])
 
 
+# The closest-candidate lines of a result's details, shown above from the search itself.
 _CANDIDATE_LINES = ("closest candidate: ", "computed: ", "claimed:  ", "produced but not claimed: ",
                     "claimed but not produced: ", "kernel: ")
 
