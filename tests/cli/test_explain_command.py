@@ -123,3 +123,14 @@ def test_a_refuted_formula_step_shows_what_was_tried_and_the_counter_model(monke
     assert "outcome: refuted" in text
     assert "2. refutation of the 4 clauses of premises and negated claim: none within 60 given clauses" in text
     assert "  low_coolant_flow = {}" in text and "  falsified: ~ reactor(0) | scrammed(0)" in text
+
+
+def test_unreadable_derivation_is_a_clear_error_with_its_place(monkeypatch, tmp_path):
+    monkeypatch.chdir(ROOT)
+    garbled = tmp_path / "garbled.p"
+    garbled.write_text("cnf(a, axiom, p).\ncnf(b, plain, q(, inference(r, [], [a])).\n", encoding="utf-8")
+    for command in (["explain", str(garbled), "b"], ["extract", str(garbled), "b", "-o", str(tmp_path / "r.p")],
+                    ["graph", str(garbled), "-o", str(tmp_path / "g.dot")]):
+        result = CliRunner().invoke(main, command)
+        assert result.exit_code == 2, command
+        assert f"{garbled}:2:" in result.output and "Traceback" not in result.output
