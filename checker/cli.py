@@ -76,7 +76,7 @@ def main() -> None:
 @click.option("--include-dir", "include_dirs", multiple=True, type=click.Path(exists=True, file_okay=False),
               help="Where to look for include(...) files (also $TPTP).")
 @click.option("--report", "report_format", type=click.Choice(["text", "json"]), default="text", show_default=True)
-@click.option("--all-steps", is_flag=True, help="List every step in the text report, not only the first failure.")
+@click.option("--all-steps", is_flag=True, help="List every step in the text report (every failing one, and those resting on a failure), not only the first failure.")
 @click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
               help="Raise or lower one bound of the per-step evidence search (counts, never time): "
               + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")

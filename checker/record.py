@@ -19,7 +19,7 @@ import json
 import os
 import platform
 from dataclasses import asdict, dataclass, fields
-from datetime import datetime, timezone
+from datetime import UTC, datetime
 from importlib.metadata import PackageNotFoundError, version
 from pathlib import Path
 
@@ -96,7 +96,7 @@ def check_record(reports: list[Report], limits: SearchLimits, options: CheckOpti
         "scope": SCOPE_STATEMENT,
         "assay_version": _assay_version(),
         "python": platform.python_version(),
-        "checked_at": datetime.now(timezone.utc).isoformat(timespec="seconds"),
+        "checked_at": datetime.now(UTC).isoformat(timespec="seconds"),
         "working_directory": os.getcwd(),
         "search_limits": asdict(limits),
         "options": {
