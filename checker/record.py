@@ -133,7 +133,8 @@ class RecordCheck:
     changed_files: tuple[str, ...]
     changed_kernel: tuple[str, ...]
     differences: tuple[str, ...]
-    certificates: int
+    verdicts: tuple[str, ...]
+    """the re-check's verdict for each certificate, in the record's order"""
 
     @property
     def holds(self) -> bool:
@@ -235,6 +236,7 @@ def verify_record(path: str, base_dir: str | None = None) -> RecordCheck:
                             if current.get(name) != recorded_kernel.get(name))
 
     differences: list[str] = []
+    verdicts: list[str] = []
     include_dirs = [here(d) for d in options.get("include_dirs", [])]
     if options.get("tptp_directory"):
         include_dirs.append(here(options["tptp_directory"]))
@@ -249,19 +251,23 @@ def verify_record(path: str, base_dir: str | None = None) -> RecordCheck:
             bool(options.get("require_problem")),
         )
         now = report_json(report)
+        verdicts.append(f"{entry['certificate']}: {now['verdict']}")
         differences.extend(compare_reports(entry["certificate"], entry["report"], now))
         read_now = [os.path.normpath(f) for f in now["files_read"]]
         read_then = [os.path.normpath(here(read["path"])) for read in entry.get("files_read", [])]
         if read_now != read_then and not changed_files:
             differences.append(f"{entry['certificate']}: the re-check read other files: " + ", ".join(
                 os.path.relpath(f, base) for f in read_now))
-    return RecordCheck(tuple(dict.fromkeys(changed_files)), tuple(changed_kernel), tuple(differences), len(record["files"]))
+    return RecordCheck(tuple(dict.fromkeys(changed_files)), tuple(changed_kernel), tuple(differences), tuple(verdicts))
 
 
 def render_record_check(path: str, found: RecordCheck) -> str:
     if found.holds:
-        return (f"{path}: the record holds: {found.certificates} certificate(s) re-checked with the recorded options "
-                "give the recorded outcomes; no file and no kernel source changed")
+        return "\n".join([
+            f"{path}: the record holds: no checked file and no kernel source changed, and the re-check with the "
+            "recorded options gives the recorded outcomes",
+            *(f"  {verdict}" for verdict in found.verdicts),
+        ])
     lines = [f"{path}: the record does not hold"]
     lines.extend(f"  changed: {name}" for name in found.changed_files)
     lines.extend(f"  kernel source changed: {name}" for name in found.changed_kernel)

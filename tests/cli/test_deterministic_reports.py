@@ -40,5 +40,5 @@ def _report(seed: str, jobs: int) -> bytes:
 def test_json_reports_are_byte_identical_across_runs_jobs_and_hash_seeds():
     first = _report("0", 1)
     assert b'"unfounded"' in first and b'"refuted"' in first and b'"introduced"' in first
-    for seed, jobs in (("0", 1), ("1", 2), ("4242", 3), ("random", 2)):
+    for seed, jobs in (("0", 1), ("1", 2), ("random", 3)):
         assert _report(seed, jobs) == first, (seed, jobs)

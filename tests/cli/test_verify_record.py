@@ -52,6 +52,7 @@ def test_an_untouched_record_holds(recorded):
     code, output = _invoke("verify-record", "record.json")
     assert code == RECORD_HOLDS == 0, output
     assert "the record holds" in output
+    assert "  conveyor/proof.p: accepted" in output
 
 
 @pytest.mark.parametrize("changed", ["proof.p", "problem.p", "conveyor_axioms.ax"])
