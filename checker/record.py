@@ -263,11 +263,9 @@ def verify_record(path: str, base_dir: str | None = None) -> RecordCheck:
 
 def render_record_check(path: str, found: RecordCheck) -> str:
     if found.holds:
-        return "\n".join([
-            f"{path}: the record holds: no checked file and no kernel source changed, and the re-check with the "
-            "recorded options gives the recorded outcomes",
-            *(f"  {verdict}" for verdict in found.verdicts),
-        ])
+        holds = (f"{path}: the record holds: no checked file and no kernel source changed, and the re-check "
+                 "with the recorded options gives the recorded outcomes")
+        return "\n".join([holds, *(f"  {verdict}" for verdict in found.verdicts)])
     lines = [f"{path}: the record does not hold"]
     lines.extend(f"  changed: {name}" for name in found.changed_files)
     lines.extend(f"  kernel source changed: {name}" for name in found.changed_kernel)
