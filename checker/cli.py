@@ -11,7 +11,15 @@ import click
 
 from checker.inspect_commands import explain_command, extract_command, graph_command
 from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
-from checker.record import check_record
+from checker.record import (
+    RECORD_INTERNAL_ERROR,
+    RECORD_UNREADABLE,
+    CheckOptions,
+    UnreadableRecord,
+    check_record,
+    render_record_check,
+    verify_record,
+)
 from checker.report import SAFETY_NOTE, render_json, render_text
 from checker.run import check, describe_internal_error
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
@@ -69,7 +77,7 @@ def main() -> None:
 @click.option("--include-dir", "include_dirs", multiple=True, type=click.Path(exists=True, file_okay=False),
               help="Where to look for include(...) files (also $TPTP).")
 @click.option("--report", "report_format", type=click.Choice(["text", "json"]), default="text", show_default=True)
-@click.option("--all-steps", is_flag=True, help="List every step in the text report, not only the first failure.")
+@click.option("--all-steps", is_flag=True, help="List every step in the text report (every failing one, and those resting on a failure), not only the first failure.")
 @click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
               help="Raise or lower one bound of the per-step evidence search (counts, never time): "
               + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")
@@ -101,7 +109,8 @@ def check_command(
     if record_path:
         try:
             with open(record_path, "w", encoding="utf-8") as out:
-                json.dump(check_record(reports, limits), out, indent=2)
+                options = CheckOptions(problem, tuple(include_dirs), limits, jobs, require_problem)
+                json.dump(check_record(reports, limits, options), out, indent=2)
         except OSError as error:
             raise click.FileError(record_path, hint=error.strerror or str(error)) from None
     sys.exit(EXIT_CODES[worst([report.verdict for report in reports])])
@@ -110,3 +119,26 @@ def check_command(
 main.add_command(explain_command)
 main.add_command(extract_command)
 main.add_command(graph_command)
+
+
+@main.command("verify-record")
+@click.argument("record", type=click.Path(dir_okay=False))
+@click.option("--base-dir", type=click.Path(exists=True, file_okay=False),
+              help="Where relative paths in the record start (default: the directory the check ran in).")
+def verify_record_command(record, base_dir) -> None:
+    """Verify a check RECORD written by `check --record`: recompute every
+    hash (certificate, problem, included files, the kernel's sources) and
+    re-run the check with the recorded options.  Exit 0 the record holds,
+    1 an outcome differs, 2 unreadable record or bad usage, 4 internal
+    error, 5 a checked file changed or is missing, 6 the kernel's sources
+    changed."""
+    try:
+        found = verify_record(record, base_dir)
+    except UnreadableRecord as error:
+        click.echo(f"assay: {error}", err=True)
+        sys.exit(RECORD_UNREADABLE)
+    except Exception as error:  # noqa: BLE001 - report, never crash
+        click.echo(f"assay: {describe_internal_error(error)}", err=True)
+        sys.exit(RECORD_INTERNAL_ERROR)
+    click.echo(render_record_check(record, found))
+    sys.exit(found.exit_code)

@@ -1,7 +1,8 @@
 """Outcomes of steps and runs, and the report model they are gathered in.
 
 The names are fixed by the design: a step is ``checked``, ``reconstructed``,
-``refuted``, ``failed``, ``unproven`` or ``assumed``; a run is ``accepted``,
+``refuted``, ``failed``, ``unproven`` or ``assumed``, and ``unfounded`` when
+its own inference holds but it rests on a failed or refuted step; a run is ``accepted``,
 ``rejected``, ``undecided`` or ``unreadable``.  Each run verdict has its
 exit code; an internal error has its own code and is never reported as
 accepted.
@@ -20,7 +21,10 @@ REFUTED = "refuted"
 FAILED = "failed"
 UNPROVEN = "unproven"
 ASSUMED = "assumed"
-STEP_OUTCOMES = (CHECKED, RECONSTRUCTED, REFUTED, FAILED, UNPROVEN, ASSUMED)
+UNFOUNDED = "unfounded"
+"""the step's own inference holds, but a premise (or one of its premises in
+turn) is failed or refuted, so the step is not sound as part of this derivation"""
+STEP_OUTCOMES = (CHECKED, RECONSTRUCTED, REFUTED, FAILED, UNPROVEN, ASSUMED, UNFOUNDED)
 
 ACCEPTED = "accepted"
 REJECTED = "rejected"
@@ -61,6 +65,33 @@ class StepResult:
         return self.outcome in (FAILED, REFUTED, UNPROVEN)
 
 
+NOT_NEEDED = "not_needed"
+UNUSED_LEAF = "unused_leaf"
+TAUTOLOGY = "tautology"
+NOTE_KINDS = (NOT_NEEDED, UNUSED_LEAF, TAUTOLOGY)
+
+
+@dataclass(frozen=True, slots=True)
+class Note:
+    """Something worth knowing about a step that is not a failure: a step
+    the refutation does not need, a leaf no step uses, a tautological clause."""
+
+    kind: str
+    step: str
+    message: str
+    location: Location | None = None
+
+
+@dataclass(frozen=True, slots=True)
+class Introduction:
+    """A symbol the derivation introduces (Skolem function, defined
+    predicate, split symbol) and the step that introduces it."""
+
+    symbol: str
+    step: str
+    location: Location | None = None
+
+
 @dataclass(frozen=True, slots=True)
 class Report:
     """The result of checking one certificate."""
@@ -74,6 +105,8 @@ class Report:
     cautions: tuple[str, ...] = field(default=())
     files: tuple[str, ...] = ()
     """every file read: the certificate, its includes, the problem and its includes"""
+    notes: tuple[Note, ...] = ()
+    introduced: tuple[Introduction, ...] = ()
 
     @property
     def exit_code(self) -> int:

@@ -15,9 +15,11 @@ from collections.abc import Sequence
 
 from checker.assumptions import check_branch_step, trace_branches
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
+from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.nested import check_with_nested
+from checker.notes import introduced_symbols, notes_on
 from checker.outcomes import (
     ACCEPTED,
     INTERNAL_ERROR,
@@ -191,6 +193,7 @@ def _check(
     results = one_conjecture_at_a_time(plan, statements, problem, results)
     results.extend(reaches_refutation(document))
     results = with_splitting_details(results, plan, branches, statements)
+    results = mark_unfounded(results, plan.steps)
     verdict = verdict_of(results)
     cautions = []
     if problem is None and verdict == ACCEPTED:
@@ -203,6 +206,7 @@ def _check(
     return Report(
         path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions),
         files=document.files + (problem.files if problem else ()),
+        notes=notes_on(plan), introduced=introduced_symbols(context.symbols),
     )
 
 

@@ -16,7 +16,7 @@ import pytest
 from tptp_derivation_files import label, mutants
 
 from checker.kernel.clauses import Clause
-from checker.outcomes import ACCEPTED, ASSUMED, CHECKED, FAILED, RECONSTRUCTED
+from checker.outcomes import ACCEPTED, ASSUMED, CHECKED, FAILED, RECONSTRUCTED, UNFOUNDED
 from checker.report import report_json
 from checker.run import check
 from formats.derivation import Inference
@@ -39,8 +39,12 @@ def test_mutant_is_not_accepted_and_fails_first_at_the_mutated_step(mutant):
     assert failure.name == mutant.broken_step, f"{failure.name} {failure.outcome}: {failure.message}"
     assert report_json(report)["first_failure"]["step"] == mutant.broken_step
     others = [step for step in report.steps if step.name != mutant.broken_step]
-    wrongly_blamed = [f"{s.name}: {s.outcome}: {s.message}" for s in others if s.outcome not in (CHECKED, RECONSTRUCTED, ASSUMED)]
+    wrongly_blamed = [f"{s.name}: {s.outcome}: {s.message}" for s in others
+                      if s.outcome not in (CHECKED, RECONSTRUCTED, ASSUMED, UNFOUNDED)]
     assert wrongly_blamed == []
+    # A step below the broken one is sound on its own but rests on it.
+    roots = {s.details[0].removeprefix("rests on: ").partition("/")[0] for s in others if s.outcome == UNFOUNDED}
+    assert roots <= {mutant.broken_step}
 
 
 @pytest.mark.parametrize("mutant", [m for m in MUTANTS if m.expected_message], ids=lambda m: label(m.path))
