@@ -22,13 +22,13 @@ from checker.explain import explain, render_explanation
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import FALSE, Formula
 from checker.opened import OpenedDerivation
-from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, Report, StepResult
+from checker.outcomes import ASSUMED, CHECKED, FAILED, RECONSTRUCTED, REFUTED, UNFOUNDED, UNPROVEN, Report, StepResult
 
 LABEL_CHARACTERS = 48
 
 FILL_COLOURS = {
     CHECKED: "#c8e6c9", RECONSTRUCTED: "#dcedc8", ASSUMED: "#e0e0e0",
-    FAILED: "#ef9a9a", REFUTED: "#ef9a9a", UNPROVEN: "#ffe082",
+    FAILED: "#ef9a9a", REFUTED: "#ef9a9a", UNPROVEN: "#ffe082", UNFOUNDED: "#ffccbc",
 }
 NOT_CHECKED_ALONE = "#ffffff"
 

@@ -137,3 +137,21 @@ def test_html_loads_without_console_errors_and_a_click_shows_the_failing_step(mo
     assert errors == []
     assert shown.startswith(f"step {failing.name} at {derivation}:19:1")
     assert "outcome: refuted" in shown and "  - block_clear(block_of(sig_a))" in shown
+
+
+def test_steps_resting_on_a_failure_have_a_colour_of_their_own(monkeypatch, tmp_path):
+    monkeypatch.chdir(ROOT)
+    path = tmp_path / "broken_then_sound.p"
+    # Step d claims r where resolving a with b gives q (worked by hand); e
+    # resolves d's claim soundly, so it rests on the failure.
+    path.write_text(
+        "cnf(a, axiom, p).\ncnf(b, axiom, ~ p | q).\ncnf(c, negated_conjecture, ~ r).\n"
+        "cnf(d, plain, r, inference(resolve, [status(thm)], [a, b])).\n"
+        "cnf(e, plain, $false, inference(resolve, [status(thm)], [d, c])).\n", encoding="utf-8")
+    report = check(str(path))
+    outcomes = {step.name: step.outcome for step in report.steps}
+    assert outcomes["e"] == "unfounded"
+    dot = to_dot(proof_graph(open_derivation(str(path)), report), "t").source
+    colours = {node.get("tooltip").strip('"').partition(":")[0]: node.get("fillcolor").strip('"')
+               for node in pydot.graph_from_dot_data(dot)[0].get_nodes() if node.get("fillcolor")}
+    assert len({colours[n] for n in ("a", "d", "e")}) == 3
