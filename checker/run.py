@@ -14,6 +14,7 @@ from collections import Counter
 from collections.abc import Sequence
 
 from checker.assumptions import check_branch_step, trace_branches
+from checker.certified_steps import checked_with_findings
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
@@ -173,8 +174,13 @@ def _check(
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
     def results_for(step) -> list[StepResult]:
-        """The results a stated step contributes: its nested records' and
-        its own (or its structural fault), then any duplicate of its name."""
+        """The results a stated step contributes (its searches recorded, or
+        answered from an elaborated certificate), then any duplicate of its name."""
+        found = checked_with_findings(step, statements.get(step.name), problem, lambda: own_results(step))
+        return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
+
+    def own_results(step) -> list[StepResult]:
+        """Its nested records' results and its own (or its structural fault)."""
         inner = nested.get(step.name, [])
         found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
         if not found and inner:
@@ -184,7 +190,7 @@ def _check(
                      or check_leaf(step, problem, limits, context.symbols)]
         elif not found:
             found = [check_step(step, [statements.get(name) for name in step.parents])]
-        return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
+        return found
 
     stated = [step for step in plan.steps if step.statement is not None]
     results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]
