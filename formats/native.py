@@ -52,8 +52,11 @@ from formats.derivation import (
 )
 from formats.tptp import parse_clause, parse_formula, parse_term
 
-VERSION = 2
-VERSIONS = (1, 2)
+VERSION = 1
+"""the version written by default (a certificate without findings)"""
+ELABORATED_VERSION = 2
+"""the version with findings, typed statements and nested records"""
+VERSIONS = (VERSION, ELABORATED_VERSION)
 VERSION_FIELD = "assay_certificate"
 FORMAT = "native"
 
