@@ -26,6 +26,7 @@ from checker.plan import Step
 from checker.search.findings import PROBLEM_LINK, EvidenceRejected, Recorder, Replayer, answering
 from formats.derivation import Document, Finding, Statement
 
+
 @dataclass(frozen=True, slots=True)
 class Recording:
     """What the checks of a derivation's steps found, by step name: the

@@ -24,7 +24,7 @@ from checker.run import check, read_document
 from checker.search.findings import CLAUSE_EVIDENCE, question_key
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from formats.derivation import Document, Finding, Inference, Parent, Statement
-from formats.native import EVIDENCE_RULES, VERSION, NativeHeader, write_native
+from formats.native import ELABORATED_VERSION, EVIDENCE_RULES, NativeHeader, write_native
 from formats.tptp import read_tptp
 
 PRODUCER = "assay elaborate"
@@ -101,7 +101,7 @@ def elaborate(
     if not accepted:
         problems = ", ".join(step.name for step in report.steps if step.is_problem)
         comment = f"PARTIAL: the derivation was {report.verdict}; these steps carry no complete evidence: {problems}"
-    header = NativeHeader(VERSION, relative, PRODUCER, comment, partial=not accepted)
+    header = NativeHeader(ELABORATED_VERSION, relative, PRODUCER, comment, partial=not accepted)
     elaborated = elaborated_document(document, problem_document, found)
     with open(output, "w", encoding="utf-8") as out:
         write_native(elaborated, out, header)

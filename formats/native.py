@@ -757,5 +757,4 @@ def write_native(document: Document, out: TextIO, header: NativeHeader | None = 
     if header.partial:
         first["partial"] = True
     out.write(json.dumps(first, ensure_ascii=False) + "\n")
-    for statement in document.statements:
-        out.write(json.dumps(_write_statement(statement, header.version), ensure_ascii=False) + "\n")
+    out.writelines(json.dumps(_write_statement(statement, header.version), ensure_ascii=False) + "\n" for statement in document.statements)

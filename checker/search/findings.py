@@ -35,7 +35,6 @@ from checker.kernel.propositional import check_unit_entailment
 from checker.kernel.rules import check_clause_step, check_conclusion
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import Term, render
-
 from formats.derivation import Finding, Statement
 
 # The kinds of finding, as the native certificate (version 2) names them.
@@ -194,7 +193,7 @@ def nothing_without_search(search):
     return skipped
 
 
-def _arg(args: tuple, kwargs: dict, position: int, name: str, default: object = None) -> object:
+def argument_of(args: tuple, kwargs: dict, position: int, name: str, default: object = None) -> object:
     return args[position] if len(args) > position else kwargs.get(name, default)
 
 

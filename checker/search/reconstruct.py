@@ -42,8 +42,8 @@ from checker.search.evidence import (
     reindexed,
     with_premise_substitutions,
 )
+from checker.search.findings import CLAUSE_EVIDENCE, argument_of, checked_clause_evidence, hook
 from checker.search.models import find_countermodel
-from checker.search.findings import CLAUSE_EVIDENCE, _arg, checked_clause_evidence, hook
 from checker.search.normal_forms import find_normal_form_chain
 from checker.search.saturation import refute
 from checker.search.subsumption import find_theta
@@ -344,7 +344,7 @@ def _run(search: _Search, rule_hint: str, screen: _Screen) -> Reconstruction:
 
 
 def _given_reconstruction(args: tuple, kwargs: dict, answer: tuple) -> Reconstruction:
-    evidence, theta = checked_clause_evidence(args[0], _arg(args, kwargs, 1, "claimed"), answer)
+    evidence, theta = checked_clause_evidence(args[0], argument_of(args, kwargs, 1, "claimed"), answer)
     return Reconstruction(evidence, theta, description="the certificate's evidence")
 
 

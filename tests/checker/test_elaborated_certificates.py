@@ -126,7 +126,7 @@ def test_a_changed_binding_in_inline_evidence_is_rejected_at_that_step(tmp_path)
                   or "left_substitution" in r.get("inference", {}))
     inference = record["inference"]
     field = "left_substitution" if "left_substitution" in inference else "right_substitution"
-    variable = sorted(inference[field])[0]
+    variable = min(inference[field])
     inference[field][variable] = "elsewhere_constant"
     _rewrite(path, records)
     assert _rejected_at(path, record["name"]) == "atoms_differ"
