@@ -13,7 +13,7 @@ SHA-256 of its text) is checked before the leaf is.
 from __future__ import annotations
 
 import hashlib
-from collections.abc import Callable, Iterator
+from collections.abc import Callable, Iterable, Iterator, Mapping
 from contextlib import contextmanager
 from contextvars import ContextVar
 from dataclasses import dataclass, field, replace
@@ -23,7 +23,7 @@ from checker.kernel.clauses import Clause
 from checker.kernel.formulas import Formula, render_formula
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
 from checker.plan import Step
-from checker.search.findings import PROBLEM_LINK, EvidenceRejected, Recorder, Replayer, answering
+from checker.search.findings import DEFINITION, PROBLEM_LINK, EvidenceRejected, Recorder, Replayer, answering
 from formats.derivation import Document, Finding, Statement
 
 
@@ -90,11 +90,28 @@ def _link_failure(step: Step, link: Finding, problem: Document | None) -> StepRe
     return None
 
 
+def shared_answers(statements: Iterable[Statement]) -> dict[str, Finding]:
+    """The answers every step must share: the definition chosen for a new
+    name is one for the whole derivation (every step introducing the name
+    asks the same question), so the first one given stands for all."""
+    shared: dict[str, Finding] = {}
+    for statement in statements:
+        for finding in statement.findings or ():
+            if finding.kind == DEFINITION:
+                shared.setdefault(finding.key, finding)
+    return shared
+
+
 def checked_with_findings(
-    step: Step, statement: Statement | None, problem: Document | None, check: Callable[[], list[StepResult]]
+    step: Step,
+    statement: Statement | None,
+    problem: Document | None,
+    check: Callable[[], list[StepResult]],
+    shared: Mapping[str, Finding] | None = None,
 ) -> list[StepResult]:
     """The results of ``check()`` for a stated step: recorded while
-    elaborating, answered from the statement's findings when it has them."""
+    elaborating, answered from the statement's findings when it has them
+    (with ``shared``, from :func:`shared_answers`, taking precedence)."""
     recorded = _recorded.get()
     if recorded is not None:
         recorder = Recorder()
@@ -108,6 +125,14 @@ def checked_with_findings(
     if statement is None or statement.findings is None:
         return check()
     answers = {f.key: f for f in statement.findings if f.kind != PROBLEM_LINK}
+    own = set(answers)
+    for key, finding in (shared or {}).items():
+        if key in answers and answers[key].answer != finding.answer:
+            return [step_result(
+                step, FAILED, f"gives a definition `{answers[key].answer}` for a name that another step "
+                f"defines as `{finding.answer}`; a name has one definition", ("reason: definition_differs",),
+            )]
+        answers[key] = finding
     for link in (f for f in statement.findings if f.kind == PROBLEM_LINK):
         failure = _link_failure(step, link, problem)
         if failure is not None:
@@ -121,7 +146,7 @@ def checked_with_findings(
             step, FAILED, f"the certificate's {rejected.kind.replace('_', ' ')} does not hold: {rejected.failure.message}",
             (f"reason: {rejected.failure.reason}",),
         )]
-    unused = sorted(set(answers) - replayer.used)
+    unused = sorted(own - replayer.used)
     if unused and any(result.outcome == UNPROVEN for result in results):
         return [step_result(
             step, FAILED, f"the certificate's evidence answers no question this step's check asks ({len(unused)} "

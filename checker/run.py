@@ -14,7 +14,7 @@ from collections import Counter
 from collections.abc import Sequence
 
 from checker.assumptions import check_branch_step, trace_branches
-from checker.certified_steps import checked_with_findings
+from checker.certified_steps import checked_with_findings, shared_answers
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
@@ -169,6 +169,7 @@ def _check(
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
     nested = _nested_by_outer(plan)
     branches = trace_branches(plan, statements)
+    shared = shared_answers(statements.values())
 
     def check_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
@@ -176,7 +177,7 @@ def _check(
     def results_for(step) -> list[StepResult]:
         """The results a stated step contributes (its searches recorded, or
         answered from an elaborated certificate), then any duplicate of its name."""
-        found = checked_with_findings(step, statements.get(step.name), problem, lambda: own_results(step))
+        found = checked_with_findings(step, statements.get(step.name), problem, lambda: own_results(step), shared)
         return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
 
     def own_results(step) -> list[StepResult]:

@@ -184,3 +184,22 @@ def test_a_finding_for_another_question_is_rejected_where_it_is_needed(tmp_path)
     finding["for"] = "0" * 32
     _rewrite(path, records)
     assert _rejected_at(path, record["name"]) == "finding_unused"
+
+
+def test_a_second_definition_for_one_name_is_rejected_at_the_step_that_gives_it(tmp_path):
+    path, records = _elaborated(tmp_path, "pallet_wrap_naming")
+    record, finding = list(_findings(records, "definition"))[-1]
+    # Every step introducing the name asks for its one definition; this one answers differently.
+    finding["definition"] = "! [X,Y] : (sP5(X,Y) <=> wrapped(Y))"
+    _rewrite(path, records)
+    assert _rejected_at(path, record["name"]) == "definition_differs"
+
+
+def test_a_wrong_definition_given_by_every_step_is_not_accepted(tmp_path):
+    path, records = _elaborated(tmp_path, "pallet_wrap_naming")
+    for _, finding in _findings(records, "definition"):
+        finding["definition"] = "! [X,Y] : (sP5(X,Y) <=> wrapped(Y))"
+    _rewrite(path, records)
+    report = check(str(path))
+    assert report.verdict == REJECTED
+    assert {step.reason for step in report.steps if step.outcome == FAILED} == {"finding_unused"}
