@@ -24,7 +24,7 @@ from checker.kernel.formulas import Formula, render_formula
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
 from checker.plan import Step
 from checker.search.findings import DEFINITION, PROBLEM_LINK, EvidenceRejected, Recorder, Replayer, answering
-from formats.derivation import Document, Finding, Statement
+from formats.derivation import Document, Finding, Origin, Statement
 
 
 @dataclass(frozen=True, slots=True)
@@ -62,12 +62,16 @@ def text_digest(content: Clause | Formula) -> str:
 
 
 def problem_link(step: Step, problem: Document | None) -> Finding | None:
-    """The link of a leaf to the problem formula of its name, if any."""
+    """The link of a leaf to the problem formula it cites (by its file
+    source, else by its own name), if the problem has one of that name."""
     if problem is None or not step.is_leaf:
         return None
-    for statement in problem.statements:
-        if statement.name == step.name:
-            return Finding(PROBLEM_LINK, statement.name, text_digest(statement.content))
+    origin = step.statement.source if step.statement is not None else None
+    cited = origin.detail[1] if isinstance(origin, Origin) and origin.kind == "file" and len(origin.detail) > 1 else None
+    for name in (cited, step.name):
+        for statement in problem.statements:
+            if statement.name == name:
+                return Finding(PROBLEM_LINK, statement.name, text_digest(statement.content))
     return None
 
 

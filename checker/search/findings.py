@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import functools
 import hashlib
-from collections.abc import Callable, Iterator, Mapping, Sequence
+from collections.abc import Callable, Collection, Iterator, Mapping, Sequence
 from contextlib import contextmanager
 from contextvars import ContextVar
 from dataclasses import dataclass, field
@@ -228,10 +228,12 @@ def checked_lemmas(premises: Sequence, conclusion, lemmas: Sequence[Clause]) -> 
     return list(lemmas)
 
 
-def checked_pairing(premises: Sequence[Formula], pairing: Sequence[tuple[int, Formula, Term, Term]]) -> None:
-    """Each witness is a fresh symbol's term that the kernel can put for
-    its quantifier, in turn; no symbol witnesses two quantifiers, and none
-    occurs in any premise."""
+def checked_pairing(
+    premises: Sequence[Formula], new: Collection[tuple[str, int]], pairing: Sequence[tuple[int, Formula, Term, Term]]
+) -> None:
+    """Each witness is a term of one of the step's new symbols that the
+    kernel can put for its quantifier, in turn; no symbol witnesses two
+    quantifiers, and none occurs in any premise."""
     present = set().union(*(symbols_of_formula(p) for p in premises)) if premises else set()
     used: set[tuple[str, int]] = set()
     current = list(premises)
@@ -239,6 +241,9 @@ def checked_pairing(premises: Sequence[Formula], pairing: Sequence[tuple[int, Fo
         symbol = (witness.symbol, len(witness.arguments))
         if not 0 <= premise < len(current):
             raise EvidenceRejected(PAIRINGS, Failure("pairing_premise", f"there is no premise {premise}"))
+        if symbol not in new:
+            raise EvidenceRejected(PAIRINGS, Failure(
+                "not_a_new_symbol", f"witness `{witness}` is not a term of a symbol the step introduces"))
         if symbol in present or symbol in used:
             raise EvidenceRejected(PAIRINGS, Failure(
                 "witness_reused", f"Skolem symbol `{witness.symbol}` occurs in a premise or witnesses twice"))

@@ -140,7 +140,7 @@ def _given_readings(args: tuple, kwargs: dict, pairings: tuple) -> Readings:
     """Pairings from a certificate, each re-checked by the kernel; never
     exhaustive, so that no choice of a certificate can refute a step."""
     for pairing in pairings:
-        checked_pairing(args[0], pairing)
+        checked_pairing(args[0], args[2], pairing)
     found = tuple(tuple(Witnessing(*witnessing) for witnessing in pairing) for pairing in pairings)
     return Readings(found, False, None)
 

@@ -203,3 +203,11 @@ def test_a_wrong_definition_given_by_every_step_is_not_accepted(tmp_path):
     report = check(str(path))
     assert report.verdict == REJECTED
     assert {step.reason for step in report.steps if step.outcome == FAILED} == {"finding_unused"}
+
+
+def test_a_witness_that_is_not_a_new_symbol_is_rejected_at_that_step(tmp_path):
+    path, records = _elaborated(tmp_path, "badge_staff_equivalence_skolemize")
+    record, finding = next(_findings(records, "witness_pairings"))
+    finding["pairings"][0][0]["witness"] = "ann"  # a constant of the problem
+    _rewrite(path, records)
+    assert _rejected_at(path, record["name"]) == "not_a_new_symbol"
