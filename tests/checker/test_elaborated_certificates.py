@@ -147,8 +147,11 @@ def test_a_changed_witness_pairing_is_rejected_at_that_step(tmp_path):
     path, records = _elaborated(tmp_path, "badge_staff_equivalence_skolemize")
     record, finding = next(_findings(records, "witness_pairings"))
     witnessing = finding["pairings"][0][0]
-    # A Skolem term that forgets the variables its quantifier depends on.
-    witnessing["witness"] = witnessing["witness"].split("(")[0] + "_constant"
+    symbol, _, arguments = witnessing["witness"].partition("(")
+    assert arguments, "the scenario's Skolem function has arguments"
+    # The same symbol over other variables: it forgets those its quantifier depends on.
+    others = ",".join(f"Z{number}" for number in range(arguments.count(",") + 1))
+    witnessing["witness"] = f"{symbol}({others})"
     _rewrite(path, records)
     assert _rejected_at(path, record["name"]) == "missing_dependency"
 
