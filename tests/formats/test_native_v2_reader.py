@@ -116,3 +116,12 @@ def test_every_finding_kind_survives_writing_and_reading():
     assert again.statements[0].findings == findings
     assert again.statements[1].source.parents == nested.parents
     assert again.statements[1].sorts == frozenset({"gate"}) and again.statements[1].language == "tff"
+
+
+def test_the_format_has_a_field_for_every_kind_of_finding_the_checker_records():
+    from checker.search.findings import FINDING_KINDS
+    from formats.native import FINDING_FIELDS, PROBLEM_LINK
+
+    assert set(FINDING_KINDS) == {*FINDING_FIELDS, PROBLEM_LINK}
+    schema_kinds = {branch["properties"]["kind"]["const"] for branch in SCHEMA["$defs"]["finding"]["oneOf"]}
+    assert schema_kinds == set(FINDING_KINDS)
