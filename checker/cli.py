@@ -10,7 +10,7 @@ from dataclasses import fields, replace
 import click
 
 from checker.inspect_commands import explain_command, extract_command, graph_command
-from checker.outcomes import EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, Report, worst
+from checker.outcomes import ACCEPTED, EXIT_CODES, EXIT_USAGE, INTERNAL_ERROR, UNREADABLE, Report, worst
 from checker.record import (
     RECORD_INTERNAL_ERROR,
     RECORD_UNREADABLE,
@@ -142,3 +142,36 @@ def verify_record_command(record, base_dir) -> None:
         sys.exit(RECORD_INTERNAL_ERROR)
     click.echo(render_record_check(record, found))
     sys.exit(found.exit_code)
+
+
+@main.command("elaborate")
+@click.argument("derivation", type=click.Path(dir_okay=False))
+@click.option("-o", "--output", "output", required=True, type=click.Path(dir_okay=False, writable=True),
+              help="Where to write the native certificate (version 2, JSON Lines).")
+@click.option("--problem", "problem", type=click.Path(dir_okay=False), help="The TPTP problem the derivation refutes.")
+@click.option("--include-dir", "include_dirs", multiple=True, type=click.Path(exists=True, file_okay=False),
+              help="Where to look for include(...) files (also $TPTP).")
+@click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
+              help="Bounds of the evidence search, as for `assay check`.")
+@click.option("--partial", is_flag=True,
+              help="Write a certificate marked partial even when the derivation is not accepted.")
+def elaborate_command(derivation, output, problem, include_dirs, search_limits, partial) -> None:
+    """Check DERIVATION and write it with the evidence found for every step,
+    so that checking the certificate needs no search.  Refuses (exit 1,
+    nothing written) a derivation that is not accepted, unless --partial."""
+    from checker.elaborate import elaborate  # only this command needs the writer
+
+    if not os.path.isdir(os.path.dirname(os.path.abspath(output))):
+        raise click.BadParameter(f"no directory to write {output} in", param_hint="--output")
+    done = elaborate(derivation, output, problem, include_dirs, _limits(search_limits), partial)
+    report = done.report
+    # Not accepted: exit 1, but unreadable input and internal errors keep their own codes.
+    refused = EXIT_CODES[report.verdict] if report.verdict in (UNREADABLE, INTERNAL_ERROR) else 1
+    if done.written is None:
+        click.echo(render_text(report))
+        click.echo(f"assay: {derivation} is {report.verdict}; no certificate written", err=True)
+        sys.exit(refused)
+    counts = ", ".join(f"{count} {outcome}" for outcome, count in report.counts.items())
+    state = "certificate" if report.verdict == ACCEPTED else "partial certificate"
+    click.echo(f"{derivation}: {report.verdict} ({counts}); {state} written to {done.written}")
+    sys.exit(0 if report.verdict == ACCEPTED else refused)

@@ -22,9 +22,10 @@ from checker.kernel.formulas import negation
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
 from checker.search.evidence import candidates, describe
+from checker.search.findings import note_nested
 from checker.search.saturation import premise_references
 from checker.statuses import weakest_status
-from formats.derivation import Statement
+from formats.derivation import Parent, Statement
 
 CANDIDATES_PER_STEP = 12
 COMBINATIONS = 64
@@ -40,13 +41,15 @@ class Option:
     content: Clause
     how: str
     from_nested: tuple[tuple[str, Option], ...] = ()
+    evidence: object = None
+    """the kernel-replayed inference that computed it"""
 
 
-def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str]]:
+def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str, object]]:
     """Distinct conclusions of single kernel-replayed inferences from
-    ``premises``, those that use every premise first."""
-    using_all: list[tuple[Clause, str]] = []
-    others: list[tuple[Clause, str]] = []
+    ``premises`` (with their evidence), those that use every premise first."""
+    using_all: list[tuple[Clause, str, object]] = []
+    others: list[tuple[Clause, str, object]] = []
     seen: set[frozenset] = set()
     for attempt in itertools.islice(candidates(premises, rule), 20 * CANDIDATES_PER_STEP):
         if attempt.computed.literal_set in seen:
@@ -54,7 +57,7 @@ def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str]]:
         seen.add(attempt.computed.literal_set)
         used = set(premise_references(attempt.evidence))
         target = using_all if used == set(range(len(premises))) else others
-        target.append((attempt.computed, describe(premises, attempt.evidence)))
+        target.append((attempt.computed, describe(premises, attempt.evidence), attempt.evidence))
     return (using_all + others)[:CANDIDATES_PER_STEP]
 
 
@@ -125,9 +128,13 @@ def check_with_nested(
         return [failure]
     if negations:
         statements = {**statements, **{result.name: stand_in for result, stand_in in negations.values()}}
+        negated = [step for step in nested if step.name in negations]
         nested = [step for step in nested if step.name not in negations]
         settled = [result for result, _ in negations.values()]
+        note_nested([_named(Step(s.name, stand_in, s.inference, s.parents, s.bindings, s.location))
+                     for s, (_, stand_in) in ((s, negations[s.name]) for s in negated)])
         if not nested:
+            note_nested([_named(outer)])
             return [*settled, check_step(outer, [statements.get(name) for name in outer.parents])]
         return [*settled, *check_with_nested(outer, nested, statements, check_step)]
     options: dict[str, list[Option]] = {}
@@ -138,8 +145,8 @@ def check_with_nested(
             if not all(isinstance(p, Clause) for p in premises):
                 continue
             picked = tuple((name, option) for name, (_, option) in zip(step.parents, choice) if option is not None)
-            for content, how in _conclusions(premises, step.inference.rule):
-                gathered.setdefault(content, Option(content, how, picked))
+            for content, how, evidence in _conclusions(premises, step.inference.rule):
+                gathered.setdefault(content, Option(content, how, picked, evidence))
         options[step.name] = list(gathered.values())[:CANDIDATES_PER_STEP]
 
     by_name = {step.name: step for step in nested}
@@ -151,8 +158,23 @@ def check_with_nested(
         result = check_step(outer, parents)
         if result.outcome == RECONSTRUCTED:
             picked = {name: option for name, (_, option) in zip(outer.parents, choice) if option is not None}
-            return [*_settled(nested, picked), result]
+            results = _settled(nested, picked)
+            note_nested([*(_stated(step, picked[step.name]) for step in nested), _named(outer)])
+            return [*results, result]
     return _coarse(outer, nested, statements, check_step, options)
+
+
+def _named(step: Step) -> Statement:
+    """The step's statement with its (planned) parents as names, as an
+    elaborated certificate states it."""
+    parents = tuple(Parent(name) for name in step.parents)
+    return replace(step.statement, source=replace(step.inference, parents=parents))
+
+
+def _stated(step: Step, option: Option) -> Statement:
+    """A nested record stated with the conclusion it was settled with."""
+    inference = replace(step.inference, parents=tuple(Parent(name) for name in step.parents), evidence=option.evidence)
+    return Statement(step.name, "plain", "cnf", option.content, step.location, inference)
 
 
 def _settled(nested: Sequence[Step], picked: dict[str, Option]) -> list[StepResult]:
@@ -201,6 +223,8 @@ def _coarse(
     flattened = Step(outer.name, outer.statement, inference, tuple(leaves), (None,) * len(leaves), outer.location)
     result = check_step(flattened, [statements.get(name) for name in leaves])
     covered = result.outcome == RECONSTRUCTED
+    if covered:
+        note_nested([_named(flattened)])
     nested_results = []
     for step in nested:
         if covered:

@@ -14,6 +14,7 @@ from collections import Counter
 from collections.abc import Sequence
 
 from checker.assumptions import check_branch_step, trace_branches
+from checker.certified_steps import checked_with_findings, shared_answers
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
@@ -170,13 +171,19 @@ def _check(
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
     nested = _nested_by_outer(plan)
     branches = trace_branches(plan, statements)
+    shared = shared_answers(statements.values())
 
     def check_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
     def results_for(step) -> list[StepResult]:
-        """The results a stated step contributes: its nested records' and
-        its own (or its structural fault), then any duplicate of its name."""
+        """The results a stated step contributes (its searches recorded, or
+        answered from an elaborated certificate), then any duplicate of its name."""
+        found = checked_with_findings(step, statements.get(step.name), problem, lambda: own_results(step), shared)
+        return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
+
+    def own_results(step) -> list[StepResult]:
+        """Its nested records' results and its own (or its structural fault)."""
         inner = nested.get(step.name, [])
         found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
         if not found and inner:
@@ -186,7 +193,7 @@ def _check(
                      or check_leaf(step, problem, limits, context.symbols)]
         elif not found:
             found = [check_step(step, [statements.get(name) for name in step.parents])]
-        return found + [duplicate for duplicate in plan.duplicates if duplicate.name == step.name]
+        return found
 
     stated = [step for step in plan.steps if step.statement is not None]
     results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]

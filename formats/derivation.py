@@ -75,6 +75,19 @@ class Origin:
 
 
 @dataclass(frozen=True, slots=True)
+class Finding:
+    """A piece of evidence an elaborated certificate gives for a step: the
+    answer (plain kernel data) to one question a check asks, of a kind
+    (``refutation``, ``witness_pairings`` ...), under the question's key;
+    or, for a leaf, the link to a problem formula (kind ``problem_link``,
+    key its name, answer the SHA-256 of its text)."""
+
+    kind: str
+    key: str
+    answer: object
+
+
+@dataclass(frozen=True, slots=True)
 class Statement:
     """One annotated formula or clause: a problem input or a derivation step."""
 
@@ -87,6 +100,9 @@ class Statement:
     sorts: frozenset[str] | None = None
     """for a typed statement (sorts erased), the sorts its terms and
     variables have; None for an untyped one"""
+    findings: tuple[Finding, ...] | None = None
+    """for an elaborated certificate, the evidence found for this statement
+    (its checks then answer their searches from it); None otherwise"""
 
 
 @dataclass(frozen=True, slots=True)

@@ -1,4 +1,4 @@
-"""Reading and writing assay's native certificate, version 1 (JSON Lines).
+"""Reading and writing assay's native certificate, versions 1 and 2 (JSON Lines).
 
 One JSON object per line: a header first, then one record per statement.
 Formulas are TPTP strings (parsed by :mod:`formats.tptp`); every inference
@@ -8,6 +8,11 @@ certificate is checked with no search at all.  The format is specified in
 ``native_certificate.schema.json``.  Field names are exactly the field
 names of the kernel's evidence classes, so each record maps one-to-one
 onto a :class:`checker.kernel.rules` evidence object.
+
+Version 2 adds what ``assay elaborate`` writes: every statement's
+``findings`` (the evidence found for it: refutations, witness pairings,
+clause evidence, a leaf's link to its problem formula ...), typed
+statements (with the sorts they use), and nested inference records.
 
 Reading is strict: an unknown field, a field of the wrong type or an
 unknown version is unreadable input, reported at the record's line.
@@ -37,6 +42,7 @@ from checker.kernel.substitution import Substitution
 from checker.kernel.terms import Term, render
 from formats.derivation import (
     Document,
+    Finding,
     Inference,
     Location,
     Origin,
@@ -47,6 +53,10 @@ from formats.derivation import (
 from formats.tptp import parse_clause, parse_formula, parse_term
 
 VERSION = 1
+"""the version written by default (a certificate without findings)"""
+ELABORATED_VERSION = 2
+"""the version with findings, typed statements and nested records"""
+VERSIONS = (VERSION, ELABORATED_VERSION)
 VERSION_FIELD = "assay_certificate"
 FORMAT = "native"
 
@@ -107,11 +117,26 @@ STATUSES = frozenset(
 )
 DEFAULT_STATUS = "thm"
 LANGUAGES = ("cnf", "fof")
+LANGUAGES_V2 = ("cnf", "fof", "tff", "thf")
 ORIGIN_KINDS = ("file", "introduced", "theory", "unknown")
 
 HEADER_FIELDS = (VERSION_FIELD, "problem", "producer", "comment")
 STATEMENT_REQUIRED = ("name", "role", "language", "formula")
 STATEMENT_OPTIONAL = ("origin", "inference", "comment")
+STATEMENT_OPTIONAL_V2 = (*STATEMENT_OPTIONAL, "findings", "sorts")
+
+# The kinds of finding in version 2 (checker/search/findings.py asks the
+# questions they answer), and the fields each has besides "kind" and "for".
+FINDING_FIELDS: dict[str, tuple[str, ...]] = {
+    "refutation": ("steps",),
+    "clause_evidence": ("evidence",),
+    "witness_pairings": ("pairings",),
+    "matching": ("substitution",),
+    "unit_lemmas": ("lemmas",),
+    "definition": ("definition",),
+}
+PROBLEM_LINK = "problem_link"
+WITNESSING_FIELDS = ("premise", "quantifier", "variable", "witness")
 
 
 @dataclass(frozen=True, slots=True)
@@ -124,6 +149,8 @@ class NativeHeader:
     problem: str | None = None
     producer: str | None = None
     comment: str | None = None
+    partial: bool = False
+    """(version 2) the derivation was not accepted: some steps lack evidence"""
 
 
 # --------------------------------------------------------------------- reading
@@ -232,16 +259,18 @@ def _header(record: _Record, value: object) -> NativeHeader:
     version = value[VERSION_FIELD]
     if not _is_integer(version):
         record.fail(f"field '{VERSION_FIELD}' must be the format version, an integer")
-    if version != VERSION:
-        record.fail(f"unknown version {version} of the native certificate (this reader knows version {VERSION})")
-    _check_fields(record, value, "", (VERSION_FIELD,), HEADER_FIELDS[1:])
+    if version not in VERSIONS:
+        record.fail(f"unknown version {version} of the native certificate (this reader knows versions 1 and 2)")
+    _check_fields(record, value, "", (VERSION_FIELD,), HEADER_FIELDS[1:] + (("partial",) if version >= 2 else ()))
     problem = _text(record, value["problem"], "problem") if "problem" in value else None
     producer = _comment(record, value["producer"], "producer") if "producer" in value else None
     comment = _comment(record, value["comment"], "comment") if "comment" in value else None
-    return NativeHeader(version, problem, producer, comment)
+    partial = _flag(record, value["partial"], "partial") if "partial" in value else False
+    return NativeHeader(version, problem, producer, comment, partial)
 
 
 def _content(record: _Record, language: str, text: str) -> Clause | Formula:
+    # Typed statements are written with their sorts erased, in fof syntax.
     where = record.location(record.column_of_value("formula"))
     try:
         return parse_clause(text, where) if language == "cnf" else parse_formula(text, where)
@@ -329,13 +358,41 @@ def _chain(record: _Record, value: object, field: str) -> Chain:
     return Chain(tuple(steps))
 
 
-def _parents(record: _Record, value: object) -> tuple[Parent, ...]:
-    if not isinstance(value, list) or not all(isinstance(name, str) and name for name in value):
-        record.fail("field 'inference.parents' must be a list of names")
-    return tuple(Parent(name) for name in value)
+def _parents(record: _Record, value: object, version: int = 1, field: str = "inference.parents") -> tuple:
+    """Parent names; in version 2 also nested inference records (objects
+    with a rule, a status and parents of their own), read depth first."""
+    if version == 1:
+        if not isinstance(value, list) or not all(isinstance(name, str) and name for name in value):
+            record.fail(f"field '{field}' must be a list of names")
+        return tuple(Parent(name) for name in value)
+    if not isinstance(value, list):
+        record.fail(f"field '{field}' must be a list of names and nested inferences")
+    built: list[list] = [[]]
+    pending: list = [(iter(value), field, None)]
+    while pending:
+        entries, where, nested = pending[-1]
+        entry = next(entries, None)
+        if entry is None:
+            pending.pop()
+            if nested is not None:
+                parents = tuple(built.pop())
+                built[-1].append(Inference(nested[0], nested[1], parents))
+            continue
+        if isinstance(entry, str) and entry:
+            built[-1].append(Parent(entry))
+            continue
+        inner = _object(record, entry, where + "[]")
+        _check_fields(record, inner, where + "[].", ("rule", "parents"), ("status",))
+        rule = _text(record, inner["rule"], where + "[].rule")
+        status = _choice(record, inner.get("status", DEFAULT_STATUS), where + "[].status", STATUSES, "a TPTP status")
+        if not isinstance(inner["parents"], list):
+            record.fail(f"field '{where}[].parents' must be a list of names and nested inferences")
+        built.append([])
+        pending.append((iter(inner["parents"]), where + "[].parents", (rule, status)))
+    return tuple(built[0])
 
 
-def _inference(record: _Record, value: object, language: str) -> Inference:
+def _inference(record: _Record, value: object, language: str, version: int = 1) -> Inference:
     value = _object(record, value, "inference")
     if "rule" not in value:
         record.fail("missing field 'inference.rule'")
@@ -354,13 +411,20 @@ def _inference(record: _Record, value: object, language: str) -> Inference:
         _check_fields(record, value, where, ("rule", "parents", "steps"), ("status",))
         evidence = Refutation(_chain(record, value["steps"], "inference.steps"))
     else:
-        _check_fields(record, value, where, ("rule", "parents"), ("status",))
-    parents = _parents(record, value["parents"])
+        _check_fields(record, value, where, ("rule", "parents"), ("status",) + (("assumptions",) if version >= 2 else ()))
+    parents = _parents(record, value["parents"], version)
     status = DEFAULT_STATUS
     if "status" in value:
         status = _choice(record, value["status"], "inference.status", STATUSES, "a TPTP status such as \"thm\"")
     theta = _substitution(record, value["theta"], "inference.theta") if "theta" in value else None
-    return Inference(rule, status, parents, evidence, theta)
+    info: tuple[str, ...] = ()
+    if "assumptions" in value:
+        # The branch assumptions the step rests on, as TPTP's assumptions([...]) record.
+        names = value["assumptions"]
+        if not isinstance(names, list) or not all(isinstance(name, str) and name for name in names):
+            record.fail("field 'inference.assumptions' must be a list of names")
+        info = (f"assumptions([{','.join(names)}])",)
+    return Inference(rule, status, parents, evidence, theta, info)
 
 
 def _origin(record: _Record, value: object) -> Origin:
@@ -374,22 +438,120 @@ def _origin(record: _Record, value: object) -> Origin:
     return Origin(kind, tuple(detail))
 
 
-def _statement(record: _Record, value: object) -> Statement:
+def _statement(record: _Record, value: object, version: int = 1) -> Statement:
     if not isinstance(value, dict):
         record.fail("a record must be a JSON object")
     if VERSION_FIELD in value:
         record.fail("a second header record: the header must be the first record and appear once")
-    _check_fields(record, value, "", STATEMENT_REQUIRED, STATEMENT_OPTIONAL)
+    _check_fields(record, value, "", STATEMENT_REQUIRED, STATEMENT_OPTIONAL if version == 1 else STATEMENT_OPTIONAL_V2)
     name = _text(record, value["name"], "name")
     role = _choice(record, value["role"], "role", ROLES, "a TPTP role such as \"axiom\" or \"plain\"")
-    language = _choice(record, value["language"], "language", LANGUAGES, '"cnf" or "fof"')
+    languages = LANGUAGES if version == 1 else LANGUAGES_V2
+    language = _choice(record, value["language"], "language", languages, " or ".join(f'"{x}"' for x in languages))
     formula = _text(record, value["formula"], "formula")
     if "comment" in value:
         _comment(record, value["comment"], "comment")
     if ("origin" in value) == ("inference" in value):
         record.fail("a record needs exactly one of the fields 'origin' (a leaf) and 'inference' (a step)")
-    source = _origin(record, value["origin"]) if "origin" in value else _inference(record, value["inference"], language)
-    return Statement(name, role, language, _content(record, language, formula), record.location(), source)
+    source = (_origin(record, value["origin"]) if "origin" in value
+              else _inference(record, value["inference"], language, version))
+    findings = sorts = None
+    if version >= 2:
+        findings = _findings(record, value.get("findings", []))
+        if "sorts" in value:
+            sorts = value["sorts"]
+            if not isinstance(sorts, list) or not all(isinstance(s, str) and s for s in sorts):
+                record.fail("field 'sorts' must be a list of sort names")
+            sorts = frozenset(sorts)
+    return Statement(name, role, language, _content(record, language, formula), record.location(), source, sorts, findings)
+
+
+def _findings(record: _Record, value: object) -> tuple[Finding, ...]:
+    """The evidence found for a statement (version 2), each answer read
+    into kernel data; whether it holds is the kernel's to say."""
+    if not isinstance(value, list):
+        record.fail("field 'findings' must be a list of findings")
+    found = []
+    for number, entry in enumerate(value):
+        where = f"findings[{number}]"
+        entry = _object(record, entry, where)
+        kind = entry.get("kind")
+        if kind == PROBLEM_LINK:
+            _check_fields(record, entry, where + ".", ("kind", "name", "sha256"), ())
+            digest = _text(record, entry["sha256"], where + ".sha256")
+            if not re.fullmatch("[0-9a-f]{64}", digest):
+                record.fail(f"field '{where}.sha256' must be 64 lower-case hex digits")
+            found.append(Finding(PROBLEM_LINK, _text(record, entry["name"], where + ".name"), digest))
+            continue
+        if kind not in FINDING_FIELDS:
+            kinds = ", ".join(f"'{k}'" for k in (*FINDING_FIELDS, PROBLEM_LINK))
+            record.fail(f"field '{where}.kind' must be one of {kinds}, not {json.dumps(kind)}")
+        _check_fields(record, entry, where + ".", ("kind", "for", *FINDING_FIELDS[kind]), ("theta",) if kind == "clause_evidence" else ())
+        key = _text(record, entry["for"], where + ".for")
+        found.append(Finding(kind, key, _answer(record, kind, entry, where)))
+    return tuple(found)
+
+
+def _answer(record: _Record, kind: str, entry: Mapping[str, object], where: str) -> object:
+    if kind == "refutation":
+        return _chain(record, entry["steps"], where + ".steps")
+    if kind == "clause_evidence":
+        evidence = _object(record, entry["evidence"], where + ".evidence")
+        rule = evidence.get("rule")
+        if rule in PRIMITIVE_RULES:
+            read = _primitive(record, evidence, rule, where + ".evidence.", (), ())
+        elif rule in (CHAIN, REFUTATION):
+            _check_fields(record, evidence, where + ".evidence.", ("rule", "steps"), ())
+            read = _chain(record, evidence["steps"], where + ".evidence.steps")
+            read = read if rule == CHAIN else Refutation(read)
+        else:
+            record.fail(f"field '{where}.evidence.rule' must be an evidence rule, not {json.dumps(rule)}")
+        theta = _substitution(record, entry["theta"], where + ".theta") if "theta" in entry else Substitution({})
+        return read, theta
+    if kind == "witness_pairings":
+        pairings = entry["pairings"]
+        if not isinstance(pairings, list) or not all(isinstance(p, list) for p in pairings):
+            record.fail(f"field '{where}.pairings' must be a list of lists of witnessings")
+        read_pairings = []
+        for pairing in pairings:
+            witnessings = []
+            for witnessing in pairing:
+                witnessing = _object(record, witnessing, where + ".pairings[]")
+                _check_fields(record, witnessing, where + ".pairings[].", WITNESSING_FIELDS, ())
+                variable = _term(record, witnessing["variable"], where + ".pairings[].variable")
+                if not variable.is_variable:
+                    record.fail(f"field '{where}.pairings[].variable' must be a variable")
+                quantifier = _formula(record, witnessing["quantifier"], where + ".pairings[].quantifier")
+                witnessings.append((
+                    _index(record, witnessing["premise"], where + ".pairings[].premise"), quantifier, variable,
+                    _term(record, witnessing["witness"], where + ".pairings[].witness"),
+                ))
+            read_pairings.append(tuple(witnessings))
+        return tuple(read_pairings)
+    if kind == "matching":
+        return _substitution(record, entry["substitution"], where + ".substitution")
+    if kind == "unit_lemmas":
+        lemmas = entry["lemmas"]
+        if not isinstance(lemmas, list):
+            record.fail(f"field '{where}.lemmas' must be a list of clauses")
+        return tuple(_clause(record, lemma, where + ".lemmas[]") for lemma in lemmas)
+    return _formula(record, entry["definition"], where + ".definition")
+
+
+def _formula(record: _Record, text: object, field: str) -> Formula:
+    text = _text(record, text, field)
+    try:
+        return parse_formula(text, record.location())
+    except UnreadableInput as error:
+        record.fail(f"field '{field}' must be a formula in TPTP syntax: {error.message}")
+
+
+def _clause(record: _Record, text: object, field: str) -> Clause:
+    text = _text(record, text, field)
+    try:
+        return parse_clause(text, record.location())
+    except UnreadableInput as error:
+        record.fail(f"field '{field}' must be a clause in TPTP syntax: {error.message}")
 
 
 def _records(text: str, path: str) -> Iterator[_Record]:
@@ -418,8 +580,8 @@ def parse_native_header(text: str, path: str = "<string>") -> NativeHeader:
 
 def parse_native(text: str, path: str = "<string>") -> Document:
     """The statements of a native certificate given as text."""
-    _, records = _header_and_records(text, path)
-    statements = tuple(_statement(record, _decode(record)) for record in records)
+    header, records = _header_and_records(text, path)
+    statements = tuple(_statement(record, _decode(record), header.version) for record in records)
     return Document(path, statements, format=FORMAT, files=(path,))
 
 
@@ -471,12 +633,31 @@ def _write_evidence(evidence: object) -> dict[str, object]:
     return fields
 
 
-def _write_inference(statement: Statement, inference: Inference) -> dict[str, object]:
-    parents = []
-    for parent in inference.parents:
-        if not isinstance(parent, Parent):
+def _write_parents(statement: Statement, parents: tuple, version: int) -> list[object]:
+    """Parent names, and in version 2 nested inference records as objects
+    (built innermost first, without recursion)."""
+    if version == 1:
+        if not all(isinstance(parent, Parent) for parent in parents):
             raise ValueError(f"statement {statement.name}: a nested inference has no name to be written as a parent")
-        parents.append(parent.name)  # stated bindings are hints; evidence supersedes them
+        return [parent.name for parent in parents]  # stated bindings are hints; evidence supersedes them
+    written: list[object] = []
+    pending: list = [(iter(parents), written)]
+    while pending:
+        entries, into = pending[-1]
+        parent = next(entries, None)
+        if parent is None:
+            pending.pop()
+        elif isinstance(parent, Parent):
+            into.append(parent.name)
+        else:
+            inner: list[object] = []
+            into.append({"rule": parent.rule, "status": parent.status or DEFAULT_STATUS, "parents": inner})
+            pending.append((iter(parent.parents), inner))
+    return written
+
+
+def _write_inference(statement: Statement, inference: Inference, version: int = 1) -> dict[str, object]:
+    parents = _write_parents(statement, inference.parents, version)
     evidence = inference.evidence
     if evidence is None:
         if inference.rule in EVIDENCE_RULES:
@@ -492,8 +673,13 @@ def _write_inference(statement: Statement, inference: Inference) -> dict[str, ob
     if inference.status is not None:
         fields["status"] = inference.status
     fields.update(record)
-    if inference.theta is not None:
+    if inference.theta is not None and not isinstance(evidence, Refutation):
         fields["theta"] = _write_substitution(inference.theta)
+    if version >= 2 and evidence is None:
+        for item in inference.info:
+            found = re.fullmatch(r"assumptions\(\[(.*)\]\)", item.replace(" ", ""))
+            if found:
+                fields["assumptions"] = [name.strip("'") for name in found.group(1).split(",") if name]
     return fields
 
 
@@ -501,7 +687,7 @@ def _write_content(content: Clause | Formula) -> str:
     return str(content) if isinstance(content, Clause) else render_formula(content)
 
 
-def _write_statement(statement: Statement) -> dict[str, object]:
+def _write_statement(statement: Statement, version: int = 1) -> dict[str, object]:
     record: dict[str, object] = {
         "name": statement.name,
         "role": statement.role,
@@ -510,10 +696,49 @@ def _write_statement(statement: Statement) -> dict[str, object]:
     }
     source = statement.source
     if isinstance(source, Inference):
-        record["inference"] = _write_inference(statement, source)
+        record["inference"] = _write_inference(statement, source, version)
     else:
         origin = source if isinstance(source, Origin) else Origin("unknown")
         record["origin"] = {"kind": origin.kind, "detail": list(origin.detail)} if origin.detail else {"kind": origin.kind}
+    if version >= 2 and statement.sorts is not None:
+        record["sorts"] = sorted(statement.sorts)
+    if version >= 2 and statement.findings:
+        record["findings"] = [_write_finding(finding) for finding in statement.findings]
+    return record
+
+
+def _write_finding(finding: Finding) -> dict[str, object]:
+    """A finding as version 2 writes it (the inverse of :func:`_answer`)."""
+    if finding.kind == PROBLEM_LINK:
+        return {"kind": PROBLEM_LINK, "name": finding.key, "sha256": finding.answer}
+    record: dict[str, object] = {"kind": finding.kind, "for": finding.key}
+    answer = finding.answer
+    if finding.kind == "refutation":
+        record["steps"] = [_write_evidence(step) for step in answer.steps]
+    elif finding.kind == "clause_evidence":
+        evidence, theta = answer
+        if isinstance(evidence, Chain):
+            record["evidence"] = {"rule": CHAIN, "steps": [_write_evidence(step) for step in evidence.steps]}
+        elif isinstance(evidence, Refutation):
+            record["evidence"] = {"rule": REFUTATION, "steps": [_write_evidence(step) for step in evidence.chain.steps]}
+        else:
+            record["evidence"] = _write_evidence(evidence)
+        if theta.mapping:
+            record["theta"] = _write_substitution(theta)
+    elif finding.kind == "witness_pairings":
+        record["pairings"] = [
+            [{"premise": premise, "quantifier": render_formula(quantifier), "variable": render(bound),
+              "witness": render(witness)} for premise, quantifier, bound, witness in pairing]
+            for pairing in answer
+        ]
+    elif finding.kind == "matching":
+        record["substitution"] = _write_substitution(answer)
+    elif finding.kind == "unit_lemmas":
+        record["lemmas"] = [str(lemma) for lemma in answer]
+    elif finding.kind == "definition":
+        record["definition"] = render_formula(answer)
+    else:
+        raise ValueError(f"no native field writes findings of kind {finding.kind}")
     return record
 
 
@@ -529,6 +754,7 @@ def write_native(document: Document, out: TextIO, header: NativeHeader | None = 
     for field in ("problem", "producer", "comment"):
         if getattr(header, field) is not None:
             first[field] = getattr(header, field)
+    if header.partial:
+        first["partial"] = True
     out.write(json.dumps(first, ensure_ascii=False) + "\n")
-    for statement in document.statements:
-        out.write(json.dumps(_write_statement(statement), ensure_ascii=False) + "\n")
+    out.writelines(json.dumps(_write_statement(statement, header.version), ensure_ascii=False) + "\n" for statement in document.statements)

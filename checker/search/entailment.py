@@ -13,10 +13,18 @@ from collections.abc import Sequence
 from checker.kernel.entailment import entailment_clauses
 from checker.kernel.formulas import Formula
 from checker.kernel.rules import Chain
+from checker.search.findings import REFUTATION, checked_refutation, hook
 from checker.search.reconstruct import SearchLimits
 from checker.search.saturation import refute
 
 
+@hook(
+    REFUTATION,
+    question=lambda premises, conclusion, limits: (list(premises), conclusion),
+    keep=lambda chain: chain,
+    give=lambda args, kwargs, chain: checked_refutation(args[0], args[1], chain),
+    nothing=lambda: None,
+)
 def find_entailment(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> Chain | None:
     """A refutation of clausify(premises ∧ ¬conclusion), or None within the bounds."""
     clauses = entailment_clauses(list(premises), conclusion)

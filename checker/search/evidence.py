@@ -30,6 +30,7 @@ from checker.kernel.rules import (
 )
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import subterms
+from checker.search.findings import searching
 from checker.search.renaming import rename_apart, split_unifier
 from checker.search.unify import unify, unify_atoms
 
@@ -322,6 +323,7 @@ def order_for(rule_hint: str) -> list[str]:
     return first + [kind for kind in GENERATORS if kind not in first]
 
 
+@searching
 def candidates(premises: Sequence[Clause], rule_hint: str = "") -> Iterator[Attempt]:
     """Every candidate single inference, in the order :func:`order_for` gives."""
     for kind in order_for(rule_hint):

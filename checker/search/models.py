@@ -27,6 +27,7 @@ from checker.kernel.entailment import entailment_clausification
 from checker.kernel.formulas import ATOM, Formula, subformulas_with_polarity
 from checker.kernel.models import Interpretation, confirm_countermodel
 from checker.kernel.terms import Term
+from checker.search.findings import nothing_without_search
 
 Symbol = tuple[str, int]
 SOLVER = "glucose4"
@@ -207,6 +208,7 @@ asked before."""
 _REMEMBERED = 256
 
 
+@nothing_without_search
 def find_countermodel(
     premises: Sequence[Clause | Formula],
     conclusion: Clause | Formula,

@@ -40,6 +40,7 @@ from checker.kernel.formulas import (
 )
 from checker.kernel.terms import Term, application
 from checker.search.entailment import find_entailment
+from checker.search.findings import DEFINITION, hook
 from checker.search.reconstruct import SearchLimits
 
 Symbol = tuple[str, int]
@@ -144,6 +145,14 @@ def _follows(premises: Sequence[Formula], conclusion: Formula, limits: SearchLim
     return chain is not None and check_entailment(premises, conclusion, chain) is None
 
 
+@hook(
+    DEFINITION,
+    # The naming check has the kernel confirm the definition's shape and each step from it.
+    question=lambda symbol, introductions, limits: (symbol, introductions),
+    keep=lambda definition: definition,
+    give=lambda args, kwargs, definition: definition,
+    nothing=lambda: None,
+)
 @lru_cache(maxsize=256)
 def choose_definition(symbol: Symbol, introductions: tuple[Introduction, ...], limits: SearchLimits) -> Formula | None:
     """The proposal (from the first introduction's premises) with which the

@@ -16,6 +16,7 @@ from pysat.solvers import Glucose3
 from checker.kernel.clauses import Clause, Literal
 from checker.kernel.entailment import entailment_clauses
 from checker.kernel.formulas import Formula
+from checker.search.findings import LEMMAS, checked_lemmas, hook
 
 
 def find_unit_refutation(clauses: Sequence[Clause], conflicts: int) -> list[Clause] | None:
@@ -50,6 +51,13 @@ def find_unit_refutation(clauses: Sequence[Clause], conflicts: int) -> list[Clau
     return lemmas
 
 
+@hook(
+    LEMMAS,
+    question=lambda premises, conclusion, conflicts: (list(premises), conclusion),
+    keep=lambda lemmas: tuple(lemmas) if lemmas is not None else None,
+    give=lambda args, kwargs, lemmas: checked_lemmas(args[0], args[1], lemmas),
+    nothing=lambda: None,
+)
 def find_unit_entailment(
     premises: Sequence[Clause | Formula], conclusion: Clause | Formula, conflicts: int
 ) -> list[Clause] | None:

@@ -42,6 +42,7 @@ from checker.search.evidence import (
     reindexed,
     with_premise_substitutions,
 )
+from checker.search.findings import CLAUSE_EVIDENCE, argument_of, checked_clause_evidence, hook
 from checker.search.models import find_countermodel
 from checker.search.normal_forms import find_normal_form_chain
 from checker.search.saturation import refute
@@ -365,6 +366,19 @@ def _run(search: _Search, rule_hint: str, screen: _Screen) -> Reconstruction:
     return Reconstruction(None, IDENTITY, search.closest(), tried=tuple(search.tried))
 
 
+def _given_reconstruction(args: tuple, kwargs: dict, answer: tuple) -> Reconstruction:
+    evidence, theta = checked_clause_evidence(args[0], argument_of(args, kwargs, 1, "claimed"), answer)
+    return Reconstruction(evidence, theta, description="the certificate's evidence")
+
+
+@hook(
+    CLAUSE_EVIDENCE,
+    # Stated bindings only steer the search; the evidence is checked against the premises.
+    question=lambda premises, claimed, *rest, **options: (list(premises), claimed),
+    keep=lambda found: (found.evidence, found.theta) if found.evidence is not None else None,
+    give=_given_reconstruction,
+    nothing=lambda: Reconstruction(None),
+)
 def reconstruct(
     premises: Sequence[Clause],
     claimed: Clause,

@@ -10,8 +10,9 @@ that a pathological clause pair costs a known amount of work.
 from __future__ import annotations
 
 from checker.kernel.clauses import Clause, Literal
-from checker.kernel.substitution import Substitution
+from checker.kernel.substitution import IDENTITY, Substitution
 from checker.kernel.terms import Term
+from checker.search.findings import MATCHING, checked_matching, hook
 from checker.search.unify import match_atoms_into
 
 DEFAULT_NODES = 2000
@@ -25,6 +26,13 @@ def _candidates(literal: Literal, claimed: Clause, bindings: dict[Term, Term]) -
     return found
 
 
+@hook(
+    MATCHING,
+    question=lambda computed, claimed, limit=None, bindings=None: (computed, claimed, bindings or IDENTITY),
+    keep=lambda theta: theta,
+    give=lambda args, kwargs, theta: checked_matching(args[0], args[1], theta),
+    nothing=lambda: None,
+)
 def find_theta(
     computed: Clause,
     claimed: Clause,

@@ -23,6 +23,7 @@ from checker.kernel.formulas import (
     free_variables,
 )
 from checker.kernel.terms import Term, application, subterms, variable
+from checker.search.findings import PAIRINGS, checked_pairing, hook
 
 Symbol = tuple[str, int]
 
@@ -135,6 +136,24 @@ class Readings:
     misfit: Misfit | None
 
 
+def _given_readings(args: tuple, kwargs: dict, pairings: tuple) -> Readings:
+    """Pairings from a certificate, each re-checked by the kernel; never
+    exhaustive, so that no choice of a certificate can refute a step."""
+    for pairing in pairings:
+        checked_pairing(args[0], args[2], pairing)
+    found = tuple(tuple(Witnessing(*witnessing) for witnessing in pairing) for pairing in pairings)
+    return Readings(found, False, None)
+
+
+@hook(
+    PAIRINGS,
+    question=lambda premises, conclusion, new, *rest: (list(premises), conclusion, set(new)),
+    keep=lambda readings: tuple(
+        tuple((w.premise, w.quantifier, w.bound, w.witness) for w in pairing) for pairing in readings.found
+    ) or None,
+    give=_given_readings,
+    nothing=lambda: Readings((), False, None),
+)
 def witness_readings(
     premises: Sequence[Formula],
     conclusion: Clause | Formula,

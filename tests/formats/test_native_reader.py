@@ -323,7 +323,7 @@ BAD_HEADERS = {
     "empty certificate": ("", "empty certificate", 1, 1),
     "only blank lines": ("\n  \n", "empty certificate", 1, 1),
     "statement first": (LEAF, "the first record must be the header", 1, 1),
-    "unknown version": ('{"assay_certificate": 2}\n' + LEAF, "unknown version 2 of the native certificate", 1, 1),
+    "unknown version": ('{"assay_certificate": 3}\n' + LEAF, "unknown version 3 of the native certificate", 1, 1),
     "version as text": ('{"assay_certificate": "1"}', "field 'assay_certificate' must be the format version", 1, 1),
     "misspelt header field": ('{"assay_certificate": 1, "problme": "p.p"}', "unknown field 'problme'", 1, 1),
     "bad JSON after blank lines": ('\n\n{"assay_certificate": 1,}', "not a JSON record", 3, 25),
