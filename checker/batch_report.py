@@ -83,6 +83,7 @@ def result_json(result: FileResult) -> dict:
         "first_failure": _step_json(result.first_failure),
         "error": result.error,
         "cautions": list(result.cautions),
+        "time_limit_reached": result.cut_short,
     }
 
 

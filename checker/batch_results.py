@@ -9,7 +9,7 @@ from dataclasses import dataclass
 from checker.outcomes import EXIT_CODES, Report, StepResult
 from checker.run import check
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
-from checker.time_limit import Deadline
+from checker.time_limit import TIME_LIMIT_REASON, Deadline
 
 
 @dataclass(frozen=True, slots=True)
@@ -41,6 +41,8 @@ class FileResult:
     first_failure: StepResult | None = None
     error: str | None = None
     cautions: tuple[str, ...] = ()
+    cut_short: bool = False
+    """the time limit left steps unchecked"""
 
     @property
     def exit_code(self) -> int:
@@ -51,6 +53,7 @@ def summarize(report: Report, seconds: float) -> FileResult:
     return FileResult(
         report.path, report.verdict, report.problem, len(report.steps), tuple(report.counts.items()), seconds,
         report.first_failure, report.error, report.cautions,
+        any(step.reason == TIME_LIMIT_REASON for step in report.steps),
     )
 
 

@@ -1,14 +1,17 @@
-"""One process per file: a crash, a hang or a memory blow-up of one check
-costs that file alone.
+"""Worker processes for a batch: a crash, a hang or a memory blow-up of one
+check costs that file alone.
 
-Each file of a batch is checked in a child process of its own, at most
-``workers`` at a time.  The child checks under the file's time limit (steps
-not reached are left unchecked, see ``checker.time_limit``) and sends back
-a :class:`~checker.batch_results.FileResult`; a child that dies without one
-is reported as an internal error of that file, and one that overruns its
-limit by more than a grace period (stuck outside the interruptible steps)
-is stopped and its file reported ``undecided``.  A fresh process per file
-also keeps the memory of a long batch flat.
+Files are handed out one at a time to at most ``workers`` child processes.
+A child checks its file under the file's time limit (steps not reached are
+left unchecked, see ``checker.time_limit``) and sends back a
+:class:`~checker.batch_results.FileResult`.  A child that dies without one
+is reported as an internal error of that file; one that overruns its limit
+by more than a grace period (stuck outside the interruptible steps) is
+stopped and its file reported ``undecided``; in both cases a new child
+takes the next file.  A child is also retired after a file cut short by
+its time limit and after ``FILES_PER_WORKER`` files, so that memory stays
+bounded over a long batch and no check starts in a process whose step was
+interrupted half way.
 """
 
 from __future__ import annotations
@@ -28,6 +31,9 @@ from checker.time_limit import Deadline, format_seconds
 STOP_GRACE = 5.0
 """seconds a child may overrun its time limit before it is stopped"""
 
+FILES_PER_WORKER = 50
+"""files one child checks before a fresh one takes over"""
+
 
 def default_context():
     """Forked children start with everything imported; elsewhere, spawned."""
@@ -35,21 +41,28 @@ def default_context():
     return multiprocessing.get_context(method)
 
 
-def _child(sender: Connection, check_one: Callable[[FileJob], FileResult], job: FileJob) -> None:
-    try:
-        result = check_one(job)
-    except BaseException as error:  # noqa: BLE001 - reported for this file, never a verdict
-        result = FileResult(job.path, INTERNAL_ERROR, problem=job.problem, error=describe_internal_error(error))
-    sender.send(result)
-    sender.close()
+def _serve(connection: Connection, check_one: Callable[[FileJob], FileResult]) -> None:
+    """A child's life: check each job it is sent until told to stop (None)."""
+    while (job := connection.recv()) is not None:
+        try:
+            result = check_one(job)
+        except BaseException as error:  # noqa: BLE001 - reported for this file, never a verdict
+            result = FileResult(job.path, INTERNAL_ERROR, problem=job.problem, error=describe_internal_error(error))
+        connection.send(result)
 
 
 @dataclass(slots=True)
-class _Running:
-    index: int
-    job: FileJob
+class _Worker:
     process: multiprocessing.process.BaseProcess
-    started: float
+    connection: Connection
+    files: int = 0
+    index: int = -1
+    job: FileJob | None = None
+    started: float = 0.0
+
+    def give(self, index: int, job: FileJob) -> None:
+        self.index, self.job, self.started, self.files = index, job, time.monotonic(), self.files + 1
+        self.connection.send(job)
 
     def stop_at(self) -> float:
         limit = self.job.time_limit
@@ -58,23 +71,32 @@ class _Running:
     def elapsed(self) -> float:
         return time.monotonic() - self.started
 
+    def end(self, kill: bool) -> None:
+        if kill:
+            self.process.kill()
+        else:
+            try:
+                self.connection.send(None)
+            except OSError:
+                self.process.kill()
+        self.process.join()
+        self.connection.close()
 
-def _ended_without_report(running: _Running) -> FileResult:
-    code = running.process.exitcode
-    if code is not None and code < 0:
-        how = f"killed by {signal.Signals(-code).name}"
-    else:
-        how = f"exit code {code}"
+
+def _ended_without_report(worker: _Worker) -> FileResult:
+    worker.process.join()
+    code = worker.process.exitcode
+    how = f"killed by {signal.Signals(-code).name}" if code is not None and code < 0 else f"exit code {code}"
     return FileResult(
-        running.job.path, INTERNAL_ERROR, problem=running.job.problem, seconds=running.elapsed(),
+        worker.job.path, INTERNAL_ERROR, problem=worker.job.problem, seconds=worker.elapsed(),
         error=f"the process checking this file ended ({how}) without a report; nothing was accepted",
     )
 
 
-def _stopped(running: _Running) -> FileResult:
+def _stopped(worker: _Worker) -> FileResult:
     return FileResult(
-        running.job.path, UNDECIDED, problem=running.job.problem, seconds=running.elapsed(),
-        error=f"not checked: no report {format_seconds(STOP_GRACE)} after {running.job.limit_reached}; "
+        worker.job.path, UNDECIDED, problem=worker.job.problem, seconds=worker.elapsed(),
+        error=f"not checked: no report {format_seconds(STOP_GRACE)} after {worker.job.limit_reached}; "
         "the process checking this file was stopped",
     )
 
@@ -108,50 +130,57 @@ def check_in_processes(
     context = context or default_context()
     results: list[FileResult | None] = [None] * len(jobs)
     waiting = list(enumerate(jobs))[::-1]
-    running: dict[Connection, _Running] = {}
+    idle: list[_Worker] = []
+    busy: dict[Connection, _Worker] = {}
 
     def finish(index: int, result: FileResult) -> None:
         results[index] = result
         if on_result is not None:
             on_result(result)
 
+    def hire() -> _Worker:
+        ours, theirs = context.Pipe()
+        process = context.Process(target=_serve, args=(theirs, check_one), daemon=True)
+        process.start()
+        theirs.close()
+        return _Worker(process, ours)
+
     try:
-        while waiting or running:
-            while waiting and len(running) < workers:
+        while waiting or busy:
+            while waiting and len(busy) < workers:
                 index, job = waiting.pop()
                 if deadline is not None and deadline.expired():
                     finish(index, not_started(job, deadline))
                     continue
-                job = within_run(job, deadline)
-                receiver, sender = context.Pipe(duplex=False)
-                process = context.Process(target=_child, args=(sender, check_one, job), daemon=True)
-                process.start()
-                sender.close()
-                running[receiver] = _Running(index, job, process, time.monotonic())
-            if not running:
+                worker = idle.pop() if idle else hire()
+                worker.give(index, within_run(job, deadline))
+                busy[worker.connection] = worker
+            if not busy:
                 continue
-            next_stop = min(entry.stop_at() for entry in running.values())
+            next_stop = min(worker.stop_at() for worker in busy.values())
             timeout = None if next_stop == float("inf") else max(0.0, next_stop - time.monotonic())
-            for receiver in wait(list(running), timeout):
-                entry = running.pop(receiver)
+            for connection in wait(list(busy), timeout):
+                worker = busy.pop(connection)
                 try:
-                    result = receiver.recv()
+                    result = connection.recv()
                 except Exception:  # noqa: BLE001 - EOF or a half-sent report: the child died
-                    entry.process.join()
-                    result = _ended_without_report(entry)
-                receiver.close()
-                entry.process.join()
-                finish(entry.index, result)
+                    finish(worker.index, _ended_without_report(worker))
+                    worker.end(kill=True)
+                    continue
+                finish(worker.index, result)
+                if worker.files >= FILES_PER_WORKER or result.cut_short:
+                    worker.end(kill=False)
+                else:
+                    idle.append(worker)
             now = time.monotonic()
-            for receiver, entry in list(running.items()):
-                if now >= entry.stop_at():
-                    del running[receiver]
-                    entry.process.kill()
-                    entry.process.join()
-                    receiver.close()
-                    finish(entry.index, _stopped(entry))
+            for connection, worker in list(busy.items()):
+                if now >= worker.stop_at():
+                    del busy[connection]
+                    worker.end(kill=True)
+                    finish(worker.index, _stopped(worker))
     finally:
-        for entry in running.values():
-            entry.process.kill()
-            entry.process.join()
+        for worker in idle:
+            worker.end(kill=False)
+        for worker in busy.values():
+            worker.end(kill=True)
     return results
