@@ -8,7 +8,7 @@ import time
 from dataclasses import replace
 from pathlib import Path
 
-import checker.file_processes as file_processes
+from checker import file_processes
 from checker.batch_results import FileJob, FileResult, check_file
 from checker.file_processes import check_in_processes
 from checker.outcomes import ACCEPTED, INTERNAL_ERROR, UNDECIDED
