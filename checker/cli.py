@@ -164,6 +164,7 @@ def batch_command(
     3 undecided, 4 internal error)."""
     from checker.batch import collect_derivations, make_jobs, run_batch
     from checker.batch_report import render_summary_json, render_table
+    from checker.cluster import ClusterUnavailable
     from checker.junit import write_junit
     from formats.derivation import UnreadableInput
 
@@ -182,7 +183,10 @@ def batch_command(
         raise click.BadParameter(f"{error.location}: {error.message}", param_hint="--problem-map") from None
     progress = Progress(unit="files", enabled=not quiet)
     progress.start(len(file_jobs))
-    batch = run_batch(file_jobs, jobs, time_limit, cluster, on_result=lambda _: progress.advance())
+    try:
+        batch = run_batch(file_jobs, jobs, time_limit, cluster, on_result=lambda _: progress.advance())
+    except ClusterUnavailable as error:
+        raise click.UsageError(str(error)) from None
     progress.finish()
     for path, write in ((json_path, lambda p: _write_text(p, render_summary_json(batch) + "\n")),
                         (junit_path, lambda p: write_junit(batch, p))):

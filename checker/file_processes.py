@@ -42,8 +42,15 @@ def default_context():
 
 
 def _serve(connection: Connection, check_one: Callable[[FileJob], FileResult]) -> None:
-    """A child's life: check each job it is sent until told to stop (None)."""
-    while (job := connection.recv()) is not None:
+    """A child's life: check each job it is sent until told to stop (None,
+    or the parent gone)."""
+    while True:
+        try:
+            job = connection.recv()
+        except EOFError:
+            return
+        if job is None:
+            return
         try:
             result = check_one(job)
         except BaseException as error:  # noqa: BLE001 - reported for this file, never a verdict
@@ -52,13 +59,23 @@ def _serve(connection: Connection, check_one: Callable[[FileJob], FileResult]) -
 
 
 @dataclass(slots=True)
-class _Worker:
+class Worker:
+    """A child process that checks the files it is given, one at a time."""
+
     process: multiprocessing.process.BaseProcess
     connection: Connection
     files: int = 0
     index: int = -1
     job: FileJob | None = None
     started: float = 0.0
+
+    @classmethod
+    def hire(cls, context, check_one: Callable[[FileJob], FileResult]) -> Worker:
+        ours, theirs = context.Pipe()
+        process = context.Process(target=_serve, args=(theirs, check_one), daemon=True)
+        process.start()
+        theirs.close()
+        return cls(process, ours)
 
     def give(self, index: int, job: FileJob) -> None:
         self.index, self.job, self.started, self.files = index, job, time.monotonic(), self.files + 1
@@ -83,7 +100,7 @@ class _Worker:
         self.connection.close()
 
 
-def _ended_without_report(worker: _Worker) -> FileResult:
+def _ended_without_report(worker: Worker) -> FileResult:
     worker.process.join()
     code = worker.process.exitcode
     how = f"killed by {signal.Signals(-code).name}" if code is not None and code < 0 else f"exit code {code}"
@@ -93,7 +110,7 @@ def _ended_without_report(worker: _Worker) -> FileResult:
     )
 
 
-def _stopped(worker: _Worker) -> FileResult:
+def _stopped(worker: Worker) -> FileResult:
     return FileResult(
         worker.job.path, UNDECIDED, problem=worker.job.problem, seconds=worker.elapsed(),
         error=f"not checked: no report {format_seconds(STOP_GRACE)} after {worker.job.limit_reached}; "
@@ -116,6 +133,34 @@ def within_run(job: FileJob, deadline: Deadline | None) -> FileJob:
     return replace(job, time_limit=left, limit_reached=deadline.describe())
 
 
+def _collect(worker: Worker) -> tuple[FileResult, bool]:
+    """The result the worker sent, and whether it may take another file
+    (else it has been ended)."""
+    try:
+        result = worker.connection.recv()
+    except Exception:  # noqa: BLE001 - EOF or a half-sent report: the child died
+        result = _ended_without_report(worker)
+        worker.end(kill=True)
+        return result, False
+    if worker.files >= FILES_PER_WORKER or result.cut_short:
+        worker.end(kill=False)
+        return result, False
+    return result, True
+
+
+def check_in_worker(worker: Worker | None, job: FileJob, context) -> tuple[FileResult, Worker | None]:
+    """One job checked in ``worker`` (a new one if None), and the worker
+    to give the next job to (None: it was ended)."""
+    worker = worker or Worker.hire(context, check_file)
+    worker.give(0, job)
+    stop_at = worker.stop_at()
+    if not wait([worker.connection], None if stop_at == float("inf") else max(0.0, stop_at - time.monotonic())):
+        worker.end(kill=True)
+        return _stopped(worker), None
+    result, kept = _collect(worker)
+    return result, worker if kept else None
+
+
 def check_in_processes(
     jobs: Sequence[FileJob],
     workers: int,
@@ -130,20 +175,13 @@ def check_in_processes(
     context = context or default_context()
     results: list[FileResult | None] = [None] * len(jobs)
     waiting = list(enumerate(jobs))[::-1]
-    idle: list[_Worker] = []
-    busy: dict[Connection, _Worker] = {}
+    idle: list[Worker] = []
+    busy: dict[Connection, Worker] = {}
 
     def finish(index: int, result: FileResult) -> None:
         results[index] = result
         if on_result is not None:
             on_result(result)
-
-    def hire() -> _Worker:
-        ours, theirs = context.Pipe()
-        process = context.Process(target=_serve, args=(theirs, check_one), daemon=True)
-        process.start()
-        theirs.close()
-        return _Worker(process, ours)
 
     try:
         while waiting or busy:
@@ -152,7 +190,7 @@ def check_in_processes(
                 if deadline is not None and deadline.expired():
                     finish(index, not_started(job, deadline))
                     continue
-                worker = idle.pop() if idle else hire()
+                worker = idle.pop() if idle else Worker.hire(context, check_one)
                 worker.give(index, within_run(job, deadline))
                 busy[worker.connection] = worker
             if not busy:
@@ -161,16 +199,9 @@ def check_in_processes(
             timeout = None if next_stop == float("inf") else max(0.0, next_stop - time.monotonic())
             for connection in wait(list(busy), timeout):
                 worker = busy.pop(connection)
-                try:
-                    result = connection.recv()
-                except Exception:  # noqa: BLE001 - EOF or a half-sent report: the child died
-                    finish(worker.index, _ended_without_report(worker))
-                    worker.end(kill=True)
-                    continue
+                result, kept = _collect(worker)
                 finish(worker.index, result)
-                if worker.files >= FILES_PER_WORKER or result.cut_short:
-                    worker.end(kill=False)
-                else:
+                if kept:
                     idle.append(worker)
             now = time.monotonic()
             for connection, worker in list(busy.items()):
