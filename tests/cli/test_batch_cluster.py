@@ -58,9 +58,12 @@ def cluster(tmp_path):
         yield address, {worker: by_pid[pid] for worker, pid in pids.items()}
     finally:
         for process in processes:
-            if process.poll() is None:
+            process.terminate()  # a worker ends its own children as it closes
+            try:
+                process.wait(timeout=START_SECONDS)
+            except subprocess.TimeoutExpired:
                 process.kill()
-            process.wait()
+                process.wait()
 
 
 def _corpus(tmp_path: Path) -> list[str]:
