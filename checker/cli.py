@@ -133,7 +133,8 @@ def check_command(
 @main.command("batch")
 @click.argument("sources", nargs=-1, required=True)
 @click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
-              help="Check this many files at once, each in a process of its own.")
+              help="Check this many files at once, each in a process of its own (on a cluster, "
+              "its workers' threads decide).")
 @click.option("--problems", "problems_dir", type=click.Path(exists=True, file_okay=False),
               help="Directory of problems: a derivation is paired with the problem of the same name "
               "(else with the one its leaves' file(...) sources name, looked for here too).")
