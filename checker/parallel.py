@@ -26,17 +26,29 @@ def _run_slice(bounds: tuple[int, int]) -> list:
     return [function(item) for item in items[start:stop]]
 
 
-def map_in_processes(function: Callable[[Item], Result], items: Sequence[Item], jobs: int) -> list[Result]:
-    """``[function(item) for item in items]``, spread over ``jobs`` processes."""
+def map_in_processes(
+    function: Callable[[Item], Result],
+    items: Sequence[Item],
+    jobs: int,
+    on_done: Callable[[int], None] | None = None,
+) -> list[Result]:
+    """``[function(item) for item in items]``, spread over ``jobs`` processes;
+    ``on_done(count)`` hears, in this process, of each batch of items done."""
     if jobs <= 1 or len(items) < 2 or "fork" not in multiprocessing.get_all_start_methods():
-        return [function(item) for item in items]
+        return [_done(function(item), on_done) for item in items]
     global _task
     _task = (function, items)
     try:
         size = max(1, math.ceil(len(items) / (jobs * 4)))
         slices = [(start, min(start + size, len(items))) for start in range(0, len(items), size)]
         with multiprocessing.get_context("fork").Pool(jobs) as pool:
-            parts = pool.map(_run_slice, slices)
+            parts = [_done(part, on_done, len(part)) for part in pool.imap(_run_slice, slices)]
     finally:
         _task = None
     return [result for part in parts for result in part]
+
+
+def _done(result: Result, on_done: Callable[[int], None] | None, count: int = 1) -> Result:
+    if on_done is not None:
+        on_done(count)
+    return result

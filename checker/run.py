@@ -24,6 +24,7 @@ from checker.notes import introduced_symbols, notes_on
 from checker.outcomes import (
     ACCEPTED,
     INTERNAL_ERROR,
+    UNPROVEN,
     UNREADABLE,
     Report,
     StepResult,
@@ -31,12 +32,16 @@ from checker.outcomes import (
 )
 from checker.parallel import map_in_processes
 from checker.plan import make_plan, with_cited_problem_statements
+from checker.progress import Progress
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
+from checker.time_limit import TIME_LIMIT_REASON, Deadline, run_before
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
+
+UNCHECKED_SHOWN = 50
 
 NO_PROBLEM_CAUTION = (
     "no problem was given: the leaves were taken as assumptions, so this shows only that "
@@ -60,13 +65,18 @@ def check(
     limits: SearchLimits = DEFAULT_LIMITS,
     jobs: int = 1,
     require_problem: bool = False,
+    deadline: Deadline | None = None,
+    progress: Progress | None = None,
 ) -> Report:
     """Check the certificate at ``path``, against the problem file if given
     (or found), spreading the steps over ``jobs`` processes.  With
     ``require_problem``, a certificate with no problem to link its leaves to
-    is unreadable rather than checked on assumptions."""
+    is unreadable rather than checked on assumptions.  Steps not checked
+    before the ``deadline`` are left unchecked (``unproven``, reason
+    ``time_limit``) and listed in a caution; ``progress`` hears of every
+    step done."""
     try:
-        return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem)
+        return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem, deadline, progress)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
         if error.excerpt:
@@ -155,6 +165,8 @@ def _check(
     limits: SearchLimits,
     jobs: int,
     require_problem: bool,
+    deadline: Deadline | None = None,
+    progress: Progress | None = None,
 ) -> Report:
     include_dirs = _include_dirs(include_dirs)
     document = _statements_or_unreadable(read_document(path, include_dirs))
@@ -195,8 +207,19 @@ def _check(
             found = [check_step(step, [statements.get(name) for name in step.parents])]
         return found
 
+    def results_in_time(step) -> list[StepResult]:
+        found = run_before(deadline, results_for, step)
+        return found if found is not None else [left_unchecked(step, deadline)]
+
     stated = [step for step in plan.steps if step.statement is not None]
-    results = [result for found in map_in_processes(results_for, stated, jobs) for result in found]
+    if progress is not None:
+        progress.start(len(stated), os.path.basename(path))
+    results = [
+        result
+        for found in map_in_processes(results_for if deadline is None else results_in_time, stated, jobs,
+                                      progress.advance if progress is not None else None)
+        for result in found
+    ]
     results = one_conjecture_at_a_time(plan, statements, problem, results)
     results.extend(reaches_refutation(document))
     results = with_splitting_details(results, plan, branches, statements)
@@ -210,11 +233,29 @@ def _check(
                             + (" or in the include directories" if include_dirs else ""))
     if problem is not None and verdict == ACCEPTED:
         cautions.extend(conjecture_cautions(plan, statements, problem))
+    unchecked = [result.name for result in results if result.reason == TIME_LIMIT_REASON]
+    if unchecked:
+        cautions.append(unchecked_caution(deadline, unchecked))
     return Report(
         path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions),
         files=document.files + (problem.files if problem else ()),
         notes=notes_on(plan), introduced=introduced_symbols(context.symbols),
     )
+
+
+def left_unchecked(step, deadline: Deadline) -> StepResult:
+    """The result of a step the time limit stopped (or never let start)."""
+    return StepResult(
+        step.name, UNPROVEN, step.inference.rule if step.inference else "leaf",
+        f"not checked: {deadline.describe()}", step.location, (f"reason: {TIME_LIMIT_REASON}",),
+    )
+
+
+def unchecked_caution(deadline: Deadline, names: list[str]) -> str:
+    shown = ", ".join(names[:UNCHECKED_SHOWN])
+    more = f" and {len(names) - UNCHECKED_SHOWN} more (each a step with reason {TIME_LIMIT_REASON})" \
+        if len(names) > UNCHECKED_SHOWN else ""
+    return f"{deadline.describe()}: {len(names)} steps left unchecked: {shown}{more}"
 
 
 def _nested_by_outer(plan) -> dict[str, list]:
