@@ -39,6 +39,7 @@ from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResul
 from checker.plan import Step
 from checker.search.entailment import find_consequence, find_entailment
 from checker.search.equivalences import has_equivalence, without_equivalences
+from checker.search.miniscoping import miniscoped
 from checker.search.models import find_countermodel
 from checker.search.propositional import find_unit_entailment
 from checker.search.reconstruct import SearchLimits, reconstruct
@@ -242,6 +243,14 @@ def _introduction(
     premises = [_equivalences_written_out(premise, limits) for premise in premises]
     readings = witness_readings(premises, conclusion, new, limits.witness_readings, _kernel_skolemize)
     if not readings.found:
+        # A prover may push quantifiers inward before Skolemizing, so that
+        # a witness rightly takes fewer arguments.
+        scoped = _miniscoped_premises(premises, limits)
+        retry = witness_readings(scoped, conclusion, new, limits.witness_readings, _kernel_skolemize) if scoped else None
+        if retry is not None and retry.found:
+            premises, readings = scoped, retry
+            what = f"{what} (miniscoped first)"
+    if not readings.found:
         if readings.misfit is not None:
             return step_result(step, FAILED, readings.misfit.message, (f"reason: {readings.misfit.reason}",))
         return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
@@ -321,6 +330,18 @@ def _replay(premises: Sequence[Formula], reading: Sequence[Witnessing]) -> list[
         assert not isinstance(replaced, Failure), "the search proposes only what the kernel Skolemized"
         skolemized[witnessing.premise] = replaced
     return skolemized
+
+
+def _miniscoped_premises(premises: Sequence[Formula], limits: SearchLimits) -> list[Formula] | None:
+    """The premises with quantifiers pushed inward, each where the kernel
+    confirms the premise entails that form; None when none changes."""
+    scoped = []
+    for premise in premises:
+        candidate = miniscoped(premise)
+        evidence = None if alpha_equivalent(candidate, premise) else find_consequence([premise], candidate, limits)
+        confirmed = evidence is not None and check_entailment([premise], candidate, evidence) is None
+        scoped.append(candidate if confirmed else premise)
+    return scoped if any(new is not old for new, old in zip(scoped, premises)) else None
 
 
 def _equivalences_written_out(premise: Formula, limits: SearchLimits) -> Formula:
