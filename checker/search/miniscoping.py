@@ -75,7 +75,10 @@ def _pushed(quantifier: str, bound: Term, body: Formula, depth: int) -> Formula:
     if not others:
         return quantified(quantifier, (bound,), body)
     inner = _pushed(quantifier, bound, _joined(body.connective, mentioning), depth + 1)
-    return _joined(body.connective, [inner, *others])
+    # Written order kept: the quantified part where its first operand was.
+    first = operands.index(mentioning[0])
+    kept = [part for part in operands[:first] if part in others]
+    return _joined(body.connective, [*kept, inner, *(part for part in others if part not in kept)])
 
 
 def miniscoped(formula: Formula, positive: bool = True, depth: int = 0) -> Formula:
