@@ -46,6 +46,9 @@ RENAMING_TRIES = 64
 MATCHING_NODES = 500
 """Matching attempts per pair of clauses (checker.search.subsumption)."""
 
+MATCHING_TRIES = 20000
+"""Pairs of clauses tried in all before the cover is given up."""
+
 
 def clause_count(formula: Formula, limit: int = CLAUSE_LIMIT) -> int:
     """How many clauses ``formula`` gives when multiplied out without
@@ -97,12 +100,17 @@ def _symbols(clause: Clause) -> set[str]:
 
 
 class _Matcher:
-    """Premise clauses indexed for subsumption of one conclusion clause."""
+    """Premise clauses indexed for subsumption of one conclusion clause:
+    by clause, and by the set of signed predicate symbols they use (a
+    subsumer's set is a subset of the subsumed clause's)."""
 
     def __init__(self, premise_clauses: Sequence[Clause]):
         self.clauses = premise_clauses
         self.exact = {clause: index for index, clause in reversed(list(enumerate(premise_clauses)))}
-        self.signatures = [_signature(clause) for clause in premise_clauses]
+        self.groups: dict[frozenset, list[int]] = {}
+        for index, clause in enumerate(premise_clauses):
+            self.groups.setdefault(_signature(clause), []).append(index)
+        self.budget = MATCHING_TRIES
 
     def subsumer(self, claimed: Clause) -> tuple[int, Substitution] | None:
         exact = self.exact.get(claimed)
@@ -110,8 +118,15 @@ class _Matcher:
             return exact, Substitution()
         wanted = _signature(claimed)
         size = len(claimed.literal_set)
-        for index, signature in enumerate(self.signatures):
-            if signature <= wanted and len(self.clauses[index].literal_set) <= size:
+        # Same symbols first: a variant (renamed variables) is the usual case.
+        groups = sorted((g for g in self.groups if g <= wanted), key=lambda g: g != wanted)
+        for group in groups:
+            for index in self.groups[group]:
+                if len(self.clauses[index].literal_set) > size:
+                    continue
+                self.budget -= 1
+                if self.budget < 0:
+                    return None
                 theta = find_theta(self.clauses[index], claimed, MATCHING_NODES)
                 if theta is not None:
                     return index, theta

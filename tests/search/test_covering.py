@@ -194,3 +194,12 @@ def test_witnesses_are_paired_clause_by_clause_in_any_order():
     conclusion = parse_formula(" & ".join(f"(?[X] : p{n}(X))" for n in reversed(range(count))))
     cover = find_cover([premise], conclusion)
     assert cover is not None and check_cover([premise], conclusion, cover) is None
+
+
+def test_the_matching_is_bounded_by_a_count_of_clause_pairs(monkeypatch):
+    # A variant needs one matching try; with none allowed no cover is found.
+    premise = parse_formula("![X] : (badge(X) | guest(X))")
+    conclusion = parse_formula("![Y] : (guest(Y) | badge(Y))")
+    assert find_cover([premise], conclusion) is not None
+    monkeypatch.setattr("checker.search.covering.MATCHING_TRIES", 0)
+    assert find_cover([premise], conclusion) is None
