@@ -9,8 +9,14 @@ Scenario (invented): fire zones of a plant, each vented or sealed and armed.
 
 from __future__ import annotations
 
+import sympy
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from sympy.logic.inference import satisfiable
+
 from checker.kernel.clauses import Clause, Literal
 from checker.kernel.entailment import Cover, check_cover, check_entailment, cover_clauses, renamed_clause
+from checker.kernel.formulas import AND, IFF, IMPLIES, OR, atomic, binary, negation
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import application, variable
 from formats.tptp import parse_formula
@@ -118,3 +124,37 @@ def test_clauses_are_renamed_deep_inside_terms_and_keep_their_variables():
         Literal(True, application("armed", (X,))),
     ])
     assert renamed_clause(clause, {}) == clause
+
+
+# Random evidence against SymPy (a reference library from PyPI): whatever
+# matches are proposed, an accepted cover is a true entailment.
+_NAMES = ("vented", "sealed", "armed")
+_propositions = st.sampled_from([atomic(application(name, ())) for name in _NAMES])
+_formulas = st.recursive(
+    _propositions,
+    lambda children: st.one_of(st.builds(negation, children),
+                               st.builds(binary, st.sampled_from((AND, OR, IMPLIES, IFF)), children, children)),
+    max_leaves=6,
+)
+_SYMPY = {AND: sympy.And, OR: sympy.Or, IMPLIES: sympy.Implies, IFF: sympy.Equivalent}
+
+
+def _to_sympy(formula):
+    if formula.connective == "atom":
+        return sympy.Symbol(formula.atom.symbol)
+    if formula.connective == "~":
+        return sympy.Not(_to_sympy(formula.arguments[0]))
+    return _SYMPY[formula.connective](*(_to_sympy(a) for a in formula.arguments))
+
+
+@settings(max_examples=200, deadline=None)
+@given(_formulas, _formulas, st.data())
+def test_a_cover_with_random_matches_is_accepted_only_for_an_entailment(premise, conclusion, data):
+    premise_clauses, conclusion_clauses, _ = cover_clauses([premise], conclusion)
+    if not premise_clauses:
+        return
+    matches = tuple(
+        (data.draw(st.integers(0, len(premise_clauses) - 1)), IDENTITY) for _ in conclusion_clauses
+    )
+    if check_cover([premise], conclusion, Cover(matches)) is None:
+        assert satisfiable(sympy.And(_to_sympy(premise), sympy.Not(_to_sympy(conclusion)))) is False
