@@ -158,3 +158,16 @@ def test_a_cover_with_random_matches_is_accepted_only_for_an_entailment(premise,
     )
     if check_cover([premise], conclusion, Cover(matches)) is None:
         assert satisfiable(sympy.And(_to_sympy(premise), sympy.Not(_to_sympy(conclusion)))) is False
+
+
+def test_a_conclusion_symbol_named_like_a_kernel_skolem_symbol_is_not_one():
+    # ?[X] : armed(X) does not entail armed(skolem_1) for a given skolem_1
+    # (a model: skolem_1 unarmed, something else armed).  The kernel's own
+    # witness takes another name, and skolem_1 may not be renamed.
+    premise = parse_formula("?[X] : armed(X)")
+    conclusion = parse_formula("armed(skolem_1)")
+    premise_clauses, conclusion_clauses, skolem = cover_clauses([premise], conclusion)
+    assert skolem == frozenset() and premise_clauses != conclusion_clauses
+    assert check_cover([premise], conclusion, Cover(((0, IDENTITY),))).reason == "missing_from_claimed"
+    renamed = check_cover([premise], conclusion, Cover(((0, IDENTITY),), (("skolem_1", "skolem_2"),)))
+    assert renamed.reason == "renames_a_symbol"
