@@ -147,7 +147,7 @@ def _to_sympy(formula):
     return _SYMPY[formula.connective](*(_to_sympy(a) for a in formula.arguments))
 
 
-@settings(max_examples=200, deadline=None)
+@settings(max_examples=60, deadline=None)
 @given(_formulas, _formulas, st.data())
 def test_a_cover_with_random_matches_is_accepted_only_for_an_entailment(premise, conclusion, data):
     premise_clauses, conclusion_clauses, _ = cover_clauses([premise], conclusion)

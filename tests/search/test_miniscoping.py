@@ -96,10 +96,10 @@ def models():
             yield {"domain": domain, "c": c, "p": p, "q": q, "r": r}
 
 
-MODELS = list(models())
+MODELS = list(models())[::3]  # every third: all sizes and tables still vary
 
 
-@settings(max_examples=120, deadline=None)
+@settings(max_examples=40, deadline=None)
 @given(formulas)
 def test_a_miniscoped_formula_is_equivalent_in_every_small_interpretation(formula):
     closed = quantified(FORALL, tuple(sorted(free_variables(formula), key=lambda v: v.symbol)), formula) \
