@@ -16,10 +16,11 @@ from collections.abc import Sequence
 
 from checker.freshness import SymbolTable, describe_symbol, new_symbols
 from checker.kernel.clauses import Clause
-from checker.kernel.entailment import check_entailment
+from checker.kernel.entailment import Cover, check_entailment
 from checker.kernel.failure import Failure
 from checker.kernel.formulas import (
     AND,
+    ATOM,
     EXISTS,
     FORALL,
     IMPLIES,
@@ -33,11 +34,14 @@ from checker.kernel.formulas import (
 )
 from checker.kernel.introductions import check_choice_axiom, check_definition, skolemize
 from checker.kernel.models import confirm_countermodel, render_countermodel
+from checker.kernel.propositional import check_unit_entailment
 from checker.outcomes import FAILED, RECONSTRUCTED, REFUTED, UNPROVEN, StepResult
 from checker.plan import Step
-from checker.search.entailment import find_entailment
+from checker.search.entailment import find_consequence, find_entailment
 from checker.search.equivalences import has_equivalence, without_equivalences
+from checker.search.miniscoping import miniscoped
 from checker.search.models import find_countermodel
+from checker.search.propositional import find_unit_entailment
 from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.witnesses import Witnessing, matching_witnesses, witness_readings
 from formats.derivation import Origin
@@ -74,6 +78,8 @@ def check_consequence(
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
         return step_result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
     length = _refutation_length(premises, conclusion, limits)
+    if length == COVERED:
+        return step_result(step, RECONSTRUCTED, f"{what}: {COVERED_MESSAGE}")
     if length is not None:
         return step_result(
             step, RECONSTRUCTED,
@@ -91,14 +97,34 @@ def check_consequence(
     return step_result(step, UNPROVEN, f"not shown within the search bounds (claimed: {what})")
 
 
+COVERED = 0
+"""The length given for an entailment shown by a cover, which has no inferences."""
+
+COVERED_MESSAGE = "kernel matched each clause of the conclusion to a premise clause that subsumes it"
+
+
 def _refutation_length(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> int | None:
     """The length of a kernel-replayed refutation of premises and negated
-    conclusion (cited axioms of choice applied first), or None."""
+    conclusion (cited axioms of choice applied first), ``COVERED`` for a
+    kernel-checked cover of the conclusion's clauses, or None."""
     premises = _with_choice_instances(premises)
-    chain = find_entailment(premises, conclusion, limits)
-    if chain is not None and check_entailment(premises, conclusion, chain) is None:
-        return len(chain.steps)
+    if all(map(_is_ground, (*premises, conclusion))):
+        # Ground atoms are propositions: a SAT solver settles the step.
+        lemmas = find_unit_entailment(premises, conclusion, limits.sat_conflicts)
+        if lemmas is not None and check_unit_entailment(premises, conclusion, lemmas) is None:
+            return len(lemmas)
+    evidence = find_consequence(premises, conclusion, limits)
+    if evidence is not None and check_entailment(premises, conclusion, evidence) is None:
+        return COVERED if isinstance(evidence, Cover) else len(evidence.steps)
     return None
+
+
+def _is_ground(formula: Formula) -> bool:
+    """No quantifier and no variable."""
+    return all(
+        part.connective not in (FORALL, EXISTS) and (part.connective != ATOM or part.atom.ground)
+        for part, _ in subformulas_with_polarity(formula)
+    )
 
 
 def _countermodel(premises: Sequence[Formula], conclusion: Formula) -> list[str] | None:
@@ -217,6 +243,14 @@ def _introduction(
     premises = [_equivalences_written_out(premise, limits) for premise in premises]
     readings = witness_readings(premises, conclusion, new, limits.witness_readings, _kernel_skolemize)
     if not readings.found:
+        # A prover may push quantifiers inward before Skolemizing, so that
+        # a witness rightly takes fewer arguments.
+        scoped = _miniscoped_premises(premises, limits)
+        retry = witness_readings(scoped, conclusion, new, limits.witness_readings, _kernel_skolemize) if scoped else None
+        if retry is not None and retry.found:
+            premises, readings = scoped, retry
+            what = f"{what} (miniscoped first)"
+    if not readings.found:
         if readings.misfit is not None:
             return step_result(step, FAILED, readings.misfit.message, (f"reason: {readings.misfit.reason}",))
         return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
@@ -241,7 +275,7 @@ def _introduction(
             if lengths[-1] is None:
                 break
         if None not in lengths:
-            how = "alpha-equivalent to a Skolemized premise" if not any(lengths) else (
+            how = "alpha-equivalent to a Skolemized premise, or its clauses subsumed by theirs" if not any(lengths) else (
                 f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences")
             return step_result(step, RECONSTRUCTED, f"{what}: {how}")
     # Say which quantifier each symbol was taken to witness: that pairing is
@@ -296,6 +330,18 @@ def _replay(premises: Sequence[Formula], reading: Sequence[Witnessing]) -> list[
         assert not isinstance(replaced, Failure), "the search proposes only what the kernel Skolemized"
         skolemized[witnessing.premise] = replaced
     return skolemized
+
+
+def _miniscoped_premises(premises: Sequence[Formula], limits: SearchLimits) -> list[Formula] | None:
+    """The premises with quantifiers pushed inward, each where the kernel
+    confirms the premise entails that form; None when none changes."""
+    scoped = []
+    for premise in premises:
+        candidate = miniscoped(premise)
+        evidence = None if alpha_equivalent(candidate, premise) else find_consequence([premise], candidate, limits)
+        confirmed = evidence is not None and check_entailment([premise], candidate, evidence) is None
+        scoped.append(candidate if confirmed else premise)
+    return scoped if any(new is not old for new, old in zip(scoped, premises)) else None
 
 
 def _equivalences_written_out(premise: Formula, limits: SearchLimits) -> Formula:

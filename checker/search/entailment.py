@@ -3,17 +3,20 @@
 The kernel decides premises ⊨ conclusion by replaying a refutation of the
 clause list it builds itself (checker.kernel.entailment); this search runs
 the bounded saturation over exactly that list, so the chain's premise
-indices line up with what the kernel rebuilds.
+indices line up with what the kernel rebuilds.  A step that only reshapes
+its premises is shown more cheaply by a cover (checker.search.covering),
+tried first by :func:`find_consequence`.
 """
 
 from __future__ import annotations
 
 from collections.abc import Sequence
 
-from checker.kernel.entailment import entailment_clauses
+from checker.kernel.entailment import Cover, entailment_clauses
 from checker.kernel.formulas import Formula
 from checker.kernel.rules import Chain
 from checker.search.findings import REFUTATION, checked_refutation, hook
+from checker.search.covering import find_cover
 from checker.search.reconstruct import SearchLimits
 from checker.search.saturation import refute
 
@@ -29,3 +32,10 @@ def find_entailment(premises: Sequence[Formula], conclusion: Formula, limits: Se
     """A refutation of clausify(premises ∧ ¬conclusion), or None within the bounds."""
     clauses = entailment_clauses(list(premises), conclusion)
     return refute(clauses, limits.saturation_clauses, limits.saturation_given, limits.subsumption_nodes)
+
+
+def find_consequence(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> Chain | Cover | None:
+    """Evidence for premises ⊨ conclusion that checker.kernel.entailment
+    checks: a cover of the conclusion's clauses when there is one, else a
+    refutation, or None within the bounds."""
+    return find_cover(premises, conclusion) or find_entailment(premises, conclusion, limits)

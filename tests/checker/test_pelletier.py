@@ -93,10 +93,6 @@ def test_each_clausification_step_is_checked_as_what_it_is(number, reports):
 # rules of Skolemization (fresh symbols, all dependencies, a quantifier to
 # witness) can catch these; a semantic check alone would pass them.
 MUTANTS = [
-    # Pelletier 18 (from memory): the witness for X forgets the Y it lies under.
-    pytest.param(18, [("sk1(Y)", "sk1")], "n3", "missing_dependency", id="p18-witness-forgets-variable"),
-    # Pelletier 19 (from memory): Z's witness forgets the outer X.
-    pytest.param(19, [("sk2(X)", "sk2")], "n3", "missing_dependency", id="p19-witness-forgets-variable"),
     # Pelletier 40 (from memory): Y's witness forgets X.
     pytest.param(
         40, [("sk2(X)", "sk2"), ("sk2(sk1)", "sk2")], "n6", "missing_dependency", id="p40-witness-forgets-variable"
@@ -109,6 +105,32 @@ MUTANTS = [
         id="p32-symbol-witnesses-nothing",
     ),
 ]
+
+
+# Witnesses with fewer arguments than the universals around them, sound
+# because the existential does not mention those universals: pushed inward
+# (miniscoping, a textbook equivalence), it lies under none of them.
+FREED_BY_MINISCOPING = [
+    # Pelletier 18: ! [Y] : ? [X] : (f(Y) & ~ f(X)) is
+    # (! [Y] : f(Y)) & ? [X] : ~ f(X), so X's witness is a constant.
+    pytest.param(18, [("sk1(Y)", "sk1")], "n3", id="p18-witness-of-a-miniscoped-existential"),
+    # Pelletier 19: Z occurs only in (~ p(Y) | q(Z)), which does not mention X.
+    pytest.param(19, [("sk2(X)", "sk2")], "n3", id="p19-witness-of-a-miniscoped-existential"),
+]
+
+
+@pytest.mark.parametrize(("number", "replacements", "step"), FREED_BY_MINISCOPING)
+def test_a_witness_freed_by_miniscoping_is_accepted(number, replacements, step, tmp_path):
+    shutil.copy(PELLETIER / f"p{number}_problem.p", tmp_path)
+    text = refutation_path(number).read_text()
+    for old, new in replacements:
+        assert old in text
+        text = text.replace(old, new)
+    variant = tmp_path / refutation_path(number).name
+    variant.write_text(text)
+    report = check(str(variant))
+    assert report.verdict == ACCEPTED
+    assert "miniscoped first" in next(s for s in report.steps if s.name == step).message
 
 
 @pytest.mark.parametrize(("number", "replacements", "broken", "reason"), MUTANTS)

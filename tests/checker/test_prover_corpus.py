@@ -31,6 +31,7 @@ from formats.tptp import read_tptp
 CORPUS = Path(__file__).resolve().parents[2] / "fixtures" / "tptp" / "prover_corpus"
 
 FAST = (
+    "access_policy_nested_quantifiers",
     "boolean_algebra_absorption",
     "boolean_algebra_complement_unique",
     "boolean_algebra_idempotence",
@@ -41,8 +42,12 @@ FAST = (
     "group_right_identity",
     "group_right_inverse",
     "group_squares_commute",
+    "interlock_equivalences",
     "lattice_idempotence",
     "lattice_order_duality",
+    "logistics_depot_cover",
+    "maintenance_schedule_dnf",
+    "plant_alarm_distribution",
     "plant_startup_checklist",
 )
 
