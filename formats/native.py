@@ -28,6 +28,7 @@ from dataclasses import dataclass
 from typing import NoReturn, TextIO
 
 from checker.kernel.clauses import Clause
+from checker.kernel.entailment import Cover
 from checker.kernel.formulas import Formula, render_formula
 from checker.kernel.rules import (
     Chain,
@@ -129,6 +130,7 @@ STATEMENT_OPTIONAL_V2 = (*STATEMENT_OPTIONAL, "findings", "sorts")
 # questions they answer), and the fields each has besides "kind" and "for".
 FINDING_FIELDS: dict[str, tuple[str, ...]] = {
     "refutation": ("steps",),
+    "cover": ("matches", "renaming"),
     "clause_evidence": ("evidence",),
     "witness_pairings": ("pairings",),
     "matching": ("substitution",),
@@ -137,6 +139,7 @@ FINDING_FIELDS: dict[str, tuple[str, ...]] = {
 }
 PROBLEM_LINK = "problem_link"
 WITNESSING_FIELDS = ("premise", "quantifier", "variable", "witness")
+COVER_MATCH_FIELDS = ("premise_clause", "substitution")
 
 
 @dataclass(frozen=True, slots=True)
@@ -495,6 +498,8 @@ def _findings(record: _Record, value: object) -> tuple[Finding, ...]:
 def _answer(record: _Record, kind: str, entry: Mapping[str, object], where: str) -> object:
     if kind == "refutation":
         return _chain(record, entry["steps"], where + ".steps")
+    if kind == "cover":
+        return _cover(record, entry, where)
     if kind == "clause_evidence":
         evidence = _object(record, entry["evidence"], where + ".evidence")
         rule = evidence.get("rule")
@@ -536,6 +541,25 @@ def _answer(record: _Record, kind: str, entry: Mapping[str, object], where: str)
             record.fail(f"field '{where}.lemmas' must be a list of clauses")
         return tuple(_clause(record, lemma, where + ".lemmas[]") for lemma in lemmas)
     return _formula(record, entry["definition"], where + ".definition")
+
+
+def _cover(record: _Record, entry: Mapping[str, object], where: str) -> Cover:
+    matches = entry["matches"]
+    if not isinstance(matches, list):
+        record.fail(f"field '{where}.matches' must be a list of matches")
+    read = []
+    for match in matches:
+        match = _object(record, match, where + ".matches[]")
+        _check_fields(record, match, where + ".matches[].", COVER_MATCH_FIELDS, ())
+        read.append((_index(record, match["premise_clause"], where + ".matches[].premise_clause"),
+                     _substitution(record, match["substitution"], where + ".matches[].substitution")))
+    renaming = entry["renaming"]
+    if not isinstance(renaming, list) or not all(
+        isinstance(pair, list) and len(pair) == 2 and all(isinstance(name, str) and name for name in pair)
+        for pair in renaming
+    ):
+        record.fail(f"field '{where}.renaming' must be a list of [from, to] pairs of symbol names")
+    return Cover(tuple(read), tuple((old, new) for old, new in renaming))
 
 
 def _formula(record: _Record, text: object, field: str) -> Formula:
@@ -715,6 +739,10 @@ def _write_finding(finding: Finding) -> dict[str, object]:
     answer = finding.answer
     if finding.kind == "refutation":
         record["steps"] = [_write_evidence(step) for step in answer.steps]
+    elif finding.kind == "cover":
+        record["matches"] = [{"premise_clause": index, "substitution": _write_substitution(theta)}
+                             for index, theta in answer.matches]
+        record["renaming"] = [[old, new] for old, new in answer.renaming]
     elif finding.kind == "clause_evidence":
         evidence, theta = answer
         if isinstance(evidence, Chain):

@@ -34,6 +34,7 @@ from checker.kernel.formulas import (
 )
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import post_order, symbols_of
+from checker.search.findings import COVER, checked_cover, hook
 from checker.search.subsumption import find_theta
 
 CLAUSE_LIMIT = 4000
@@ -133,6 +134,13 @@ class _Matcher:
         return None
 
 
+@hook(
+    COVER,
+    question=lambda premises, conclusion: (list(premises), conclusion),
+    keep=lambda cover: cover,
+    give=lambda args, kwargs, cover: checked_cover(args[0], args[1], cover),
+    nothing=lambda: None,
+)
 def find_cover(premises: Sequence[Clause | Formula], conclusion: Clause | Formula) -> Cover | None:
     """A cover of the conclusion's clauses by the premises', or None (too
     many clauses, or some conclusion clause subsumed by none)."""

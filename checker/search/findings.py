@@ -27,7 +27,7 @@ from contextvars import ContextVar
 from dataclasses import dataclass, field
 
 from checker.kernel.clauses import Clause
-from checker.kernel.entailment import check_entailment
+from checker.kernel.entailment import Cover, check_cover, check_entailment
 from checker.kernel.failure import Failure
 from checker.kernel.formulas import Formula, render_formula, symbols_of_formula
 from checker.kernel.introductions import skolemize
@@ -39,13 +39,14 @@ from formats.derivation import Finding, Statement
 
 # The kinds of finding, as the native certificate (version 2) names them.
 REFUTATION = "refutation"
+COVER = "cover"
 CLAUSE_EVIDENCE = "clause_evidence"
 PAIRINGS = "witness_pairings"
 MATCHING = "matching"
 LEMMAS = "unit_lemmas"
 DEFINITION = "definition"
 PROBLEM_LINK = "problem_link"
-FINDING_KINDS = (REFUTATION, CLAUSE_EVIDENCE, PAIRINGS, MATCHING, LEMMAS, DEFINITION, PROBLEM_LINK)
+FINDING_KINDS = (REFUTATION, COVER, CLAUSE_EVIDENCE, PAIRINGS, MATCHING, LEMMAS, DEFINITION, PROBLEM_LINK)
 
 
 class EvidenceRejected(Exception):
@@ -209,6 +210,12 @@ def checked_refutation(premises: Sequence, conclusion, chain):
     """A refutation of premises ∧ ¬conclusion, replayed by the kernel."""
     _reject_if(REFUTATION, check_entailment(premises, conclusion, chain))
     return chain
+
+
+def checked_cover(premises: Sequence, conclusion, cover: Cover) -> Cover:
+    """A cover of the conclusion's clauses by the premises', re-checked by the kernel."""
+    _reject_if(COVER, check_cover(premises, conclusion, cover))
+    return cover
 
 
 def checked_clause_evidence(premises: Sequence[Clause], claimed: Clause, answer: tuple):

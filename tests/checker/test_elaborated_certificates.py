@@ -143,6 +143,22 @@ def test_a_changed_literal_index_in_a_refutation_is_rejected_at_that_step(tmp_pa
     assert _rejected_at(path, record["name"]) == "literal_out_of_range"
 
 
+def test_a_cover_match_naming_a_clause_the_premises_lack_is_rejected_at_that_step(tmp_path):
+    path, records = _elaborated(tmp_path, "cooling_racks_distribution")
+    record, finding = next(_findings(records, "cover"))
+    finding["matches"][0]["premise_clause"] = 10**6
+    _rewrite(path, records)
+    assert _rejected_at(path, record["name"]) == "no_such_clause"
+
+
+def test_a_cover_renaming_a_symbol_of_the_problem_is_rejected_at_that_step(tmp_path):
+    path, records = _elaborated(tmp_path, "cooling_racks_distribution")
+    record, finding = next(_findings(records, "cover"))
+    finding["renaming"].append(["primary", "backup"])
+    _rewrite(path, records)
+    assert _rejected_at(path, record["name"]) == "renames_a_symbol"
+
+
 def test_a_changed_witness_pairing_is_rejected_at_that_step(tmp_path):
     path, records = _elaborated(tmp_path, "badge_staff_equivalence_skolemize")
     record, finding = next(_findings(records, "witness_pairings"))

@@ -15,6 +15,7 @@ from pathlib import Path
 import jsonschema
 import pytest
 
+from checker.kernel.entailment import Cover
 from checker.kernel.rules import Chain, Resolution
 from checker.kernel.substitution import Substitution
 from formats.derivation import Finding, Inference, Parent, UnreadableInput
@@ -92,6 +93,8 @@ def test_every_finding_kind_survives_writing_and_reading():
     quantifier = parse_formula("? [Y] : holds(X,Y)")
     findings = (
         Finding("refutation", KEY, Chain((Resolution(0, 0, 1, 0, Substitution({x: parse_term("g1")})),))),
+        Finding("cover", KEY, Cover(((2, Substitution({x: parse_term("g1")})), (0, Substitution({}))),
+                                    (("esk1_1", "sk2"),))),
         Finding("clause_evidence", KEY, (Resolution(0, 1, 1, 0), Substitution({y: x}))),
         Finding("witness_pairings", KEY, (((0, quantifier, y, parse_term("sk1(X)")),),)),
         Finding("matching", KEY, Substitution({x: parse_term("g2")})),
