@@ -31,6 +31,7 @@ from checker.plan import make_plan, with_cited_problem_statements
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
+from checker.tables import file_scope
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
@@ -63,7 +64,8 @@ def check(
     ``require_problem``, a certificate with no problem to link its leaves to
     is unreadable rather than checked on assumptions."""
     try:
-        return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem)
+        with file_scope():
+            return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
         if error.excerpt:
