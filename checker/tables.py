@@ -19,7 +19,7 @@ from contextlib import contextmanager
 
 from checker import leaves
 from checker.kernel import formulas, terms
-from checker.search import namings, restatement
+from checker.search import models, namings, restatement
 
 _lock = threading.Lock()
 _open = 0
@@ -32,6 +32,7 @@ def _forget_memos() -> None:
     leaves.forget_indexed_problem()
     restatement.shape_of.cache_clear()
     namings.choose_definition.cache_clear()
+    models.forget_countermodels()
 
 
 @contextmanager

@@ -252,6 +252,11 @@ asked before."""
 _REMEMBERED = 256
 
 
+def forget_countermodels() -> None:
+    """Forget the remembered counter-models (between files)."""
+    _FOUND.clear()
+
+
 def find_countermodel(
     premises: Sequence[Clause | Formula],
     conclusion: Clause | Formula,
