@@ -17,8 +17,8 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from checker.search.reconstruct import reconstruct  # noqa: E402
-from formats.tptp import parse_clause  # noqa: E402
+from checker.search.reconstruct import reconstruct
+from formats.tptp import parse_clause
 
 
 def _wrapped(term: str, layers: int) -> str:
@@ -43,7 +43,7 @@ def main() -> None:
             times = [ms for ms, _ in runs]
             if label == "right":
                 medians.extend(times)
-            print(f"{layers:8d} {label:6} {str(runs[0][1]):>5} {statistics.median(times):10.1f} {max(times):8.1f}")
+            print(f"{layers:8d} {label:6} {runs[0][1]!s:>5} {statistics.median(times):10.1f} {max(times):8.1f}")
     print(f"median over every right claim: {statistics.median(medians):.1f} ms")
 
 

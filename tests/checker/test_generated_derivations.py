@@ -12,9 +12,9 @@ import pytest
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[2] / "bench"))
 
-from generate import KINDS, generate, write  # noqa: E402
+from generate import KINDS, generate, write
 
-from checker.run import check  # noqa: E402
+from checker.run import check
 
 
 @pytest.fixture(scope="module")

@@ -13,6 +13,7 @@ from __future__ import annotations
 
 from hypothesis import given, settings
 from hypothesis import strategies as st
+from search_strategies import clauses
 
 from checker.kernel.clauses import Clause, is_equality
 from checker.kernel.models import confirm_countermodel
@@ -20,7 +21,6 @@ from checker.kernel.terms import application, post_order, subterms
 from checker.search.models import GROUND_NAME, find_countermodel, name_ground_terms
 from checker.search.reconstruct import reconstruct
 from formats.tptp import parse_clause
-from search_strategies import clauses
 
 
 def _unfold(clause: Clause, meaning: dict) -> Clause:
