@@ -16,7 +16,8 @@ and a conjecture leaf and the problem's conjecture entail each other.
 
 from __future__ import annotations
 
-from collections.abc import Iterator, Sequence
+from collections.abc import Iterator
+from dataclasses import dataclass
 from functools import lru_cache
 
 from checker.formula_steps import as_formula, check_introduced_leaf
@@ -157,10 +158,10 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
     if problem is None:
         return StepResult(step.name, ASSUMED, "leaf", "taken as given: no problem to check it against", step.location)
     cited = origin.detail[1] if origin.kind == "file" and len(origin.detail) > 1 and origin.detail[1] else statement.name
-    candidates = _by_name_first(problem.statements, cited)
+    inputs = _problem_inputs(problem)
     if statement.role == "conjecture":
-        return _check_conjecture_leaf(step, [c for c in candidates if c.role == "conjecture"], cited, limits)
-    return _check_axiom_leaf(step, candidates, cited, limits)
+        return _check_conjecture_leaf(step, list(inputs.conjectures), cited, limits)
+    return _check_axiom_leaf(step, inputs, cited, limits)
 
 
 def _check_conjecture_leaf(step: Step, conjectures: list[Statement], cited: str, limits: SearchLimits) -> StepResult:
@@ -178,13 +179,13 @@ def _check_conjecture_leaf(step: Step, conjectures: list[Statement], cited: str,
     )
 
 
-def _check_axiom_leaf(step: Step, candidates: list[Statement], cited: str, limits: SearchLimits) -> StepResult:
+def _check_axiom_leaf(step: Step, inputs: _ProblemInputs, cited: str, limits: SearchLimits) -> StepResult:
     """Cheapest first (see :func:`_tries`); a statement the leaf restates but
     that the search could not confirm leaves it unproven, not failed."""
     content = step.statement.content
     stated_conjecture = None
     unconfirmed = None
-    for candidate, same in _tries(candidates, cited, content, limits):
+    for candidate, same in _tries(inputs, cited, content, limits):
         if same:
             if not same_content(candidate.content, content):
                 continue
@@ -210,22 +211,22 @@ def _check_axiom_leaf(step: Step, candidates: list[Statement], cited: str, limit
         )
     if unconfirmed is not None:
         return _unconfirmed(step, unconfirmed)
+    candidates = inputs.by_name.get(cited, []) + [c for c in inputs.statements if c.name != cited]
     return _fail(step, f"not in the problem: `{content}`{_closest(candidates, cited, content)}", "not_in_problem")
 
 
 def _tries(
-    candidates: list[Statement], cited: str, content: Clause | Formula, limits: SearchLimits
+    inputs: _ProblemInputs, cited: str, content: Clause | Formula, limits: SearchLimits
 ) -> Iterator[tuple[Statement, bool]]:
     """(problem statement, whether to ask for the same content rather than
     an entailment), in the order worth trying: the cited statement as the
     same content, then entailing the leaf; any other as the same content;
     then, by entailment, the first few others the leaf restates."""
-    named = [c for c in candidates if c.name == cited]
-    others = [c for c in candidates if c.name != cited]
+    named = inputs.by_name.get(cited, [])
     yield from ((c, True) for c in named)
     yield from ((c, False) for c in named)
-    yield from ((c, True) for c in others)
-    restating = (c for c in others if restated(c.content, content, limits))
+    yield from ((c, True) for c in inputs.statements if c.name != cited)
+    restating = (c for c in inputs.statements if c.name != cited and restated(c.content, content, limits))
     for _, candidate in zip(range(CONTENT_CANDIDATES), restating):
         yield candidate, False
 
@@ -244,9 +245,35 @@ def _closest(candidates: list[Statement], cited: str, content: Clause | Formula)
     return f"; the closest problem statement is `{closest.name}`: `{closest.content}`"
 
 
-def _by_name_first(statements: Sequence[Statement], name: str) -> list[Statement]:
-    """The problem's inputs, the cited one first.  A statement derived by an
-    inference is no input of a problem, whatever file it stands in."""
-    inputs = [s for s in statements if not isinstance(s.source, Inference)]
-    named = [s for s in inputs if s.name == name]
-    return named + [s for s in inputs if s.name != name]
+@dataclass(frozen=True, slots=True)
+class _ProblemInputs:
+    """The problem's inputs, indexed once per problem so that linking each
+    leaf costs a look-up rather than a pass over the problem.  A statement
+    derived by an inference is no input of a problem, whatever file it
+    stands in."""
+
+    statements: tuple[Statement, ...]
+    by_name: dict[str, list[Statement]]
+    conjectures: tuple[Statement, ...]
+
+
+_last_indexed: tuple = (None, None)  # (problem, its inputs), replaced as one value
+
+
+def _problem_inputs(problem: Document) -> _ProblemInputs:
+    global _last_indexed
+    indexed_problem, inputs = _last_indexed
+    if indexed_problem is not problem:
+        statements = tuple(s for s in problem.statements if not isinstance(s.source, Inference))
+        by_name: dict[str, list[Statement]] = {}
+        for statement in statements:
+            by_name.setdefault(statement.name, []).append(statement)
+        inputs = _ProblemInputs(statements, by_name, tuple(s for s in statements if s.role == "conjecture"))
+        _last_indexed = (problem, inputs)
+    return inputs
+
+
+def forget_indexed_problem() -> None:
+    """Drop the index of the last problem (between files)."""
+    global _last_indexed
+    _last_indexed = (None, None)

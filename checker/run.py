@@ -36,6 +36,7 @@ from checker.progress import Progress
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
+from checker.tables import file_scope
 from checker.time_limit import TIME_LIMIT_REASON, Deadline, run_before
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
@@ -76,7 +77,8 @@ def check(
     ``time_limit``) and listed in a caution; ``progress`` hears of every
     step done."""
     try:
-        return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem, deadline, progress)
+        with file_scope():
+            return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem, deadline, progress)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
         if error.excerpt:

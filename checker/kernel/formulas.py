@@ -13,7 +13,7 @@ iterative: prover output chains thousands of conjuncts.
 from __future__ import annotations
 
 from collections.abc import Iterator
-from itertools import repeat
+from itertools import islice, repeat
 
 from checker.kernel.clauses import Clause
 from checker.kernel.substitution import Substitution
@@ -79,6 +79,19 @@ def make(
         formula.atom = atom
         _table[key] = formula
     return formula
+
+
+def table_size() -> int:
+    """How many formulas the table holds: a mark for :func:`forget_formulas_since`."""
+    return len(_table)
+
+
+def forget_formulas_since(mark: int) -> None:
+    """Drop every formula made after ``mark`` from the table, and every
+    free-variable memo made since (as :func:`terms.forget_terms_since`)."""
+    for key in list(islice(_table, mark, None)):
+        del _table[key]
+    _free.clear()
 
 
 def _flat(formula: Formula) -> tuple[tuple[str, tuple[int, ...], tuple[Term, ...], Term | None], ...]:
@@ -164,8 +177,8 @@ def _is_equality(atom: Term) -> bool:
 
 
 _free: dict[Formula, frozenset[Term]] = {}
-"""Free variables of every formula asked about; formulas are never freed
-(the hash-consing table keeps them), so neither is this memo."""
+"""Free variables of every formula asked about, emptied when the table
+forgets the formulas of a file (:func:`forget_formulas_since`)."""
 
 
 def free_variables(formula: Formula) -> frozenset[Term]:

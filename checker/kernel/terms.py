@@ -9,6 +9,7 @@ terms far deeper than Python's recursion limit.
 from __future__ import annotations
 
 from collections.abc import Iterator
+from itertools import islice
 
 Position = tuple[int, ...]
 """A path into a term: 1-based argument indices, root is ``()``."""
@@ -52,6 +53,20 @@ def _make(key: tuple, symbol: str, arguments: tuple, is_variable: bool) -> Term:
     term.ground = not is_variable and all(a.ground for a in arguments)
     _table[key] = term
     return term
+
+
+def table_size() -> int:
+    """How many terms the table holds: a mark for :func:`forget_terms_since`."""
+    return len(_table)
+
+
+def forget_terms_since(mark: int) -> None:
+    """Drop from the table every term made after ``mark`` (between files,
+    so that one process's memory stays flat).  A term made later is no
+    longer the one object for its value, so the caller must use none of
+    them again; the table keeps insertion order, so they are the last."""
+    for key in list(islice(_table, mark, None)):
+        del _table[key]
 
 
 def variable(name: str) -> Term:

@@ -22,11 +22,11 @@ from itertools import combinations, product
 
 from pysat.solvers import Solver
 
-from checker.kernel.clauses import Clause
+from checker.kernel.clauses import Clause, Literal
 from checker.kernel.entailment import entailment_clausification
 from checker.kernel.formulas import ATOM, Formula, subformulas_with_polarity
 from checker.kernel.models import Interpretation, confirm_countermodel
-from checker.kernel.terms import Term
+from checker.kernel.terms import Term, application, post_order
 from checker.search.findings import nothing_without_search
 
 Symbol = tuple[str, int]
@@ -87,6 +87,51 @@ def flatten(clause: Clause) -> FlatClause:
         else:
             literals.append(FlatLiteral("predicate", literal.positive, (atom.symbol, atom.arity), arguments))
     return FlatClause(len(slots), (*definitions, *literals))
+
+
+GROUND_NAME = "ground#"
+"""Prefix of the constants that name ground terms (no TPTP word has ``#``)."""
+
+
+def name_ground_terms(clauses: Sequence[Clause]) -> list[Clause]:
+    """The clauses with every ground compound term replaced by a constant
+    of its own, defined by a unit clause ``f(c1..cn) = c``: satisfiable
+    exactly when the clauses are.  Flattening then gives a deeply nested
+    ground term one variable per definition instead of one per subterm in
+    every clause that holds it, so a ground instance count of
+    ``size ** depth`` becomes ``depth * size ** (arity + 2)``."""
+    names: dict[Term, Term] = {}
+    definitions: list[Clause] = []
+
+    def name(term: Term) -> Term:
+        for current in post_order(term, names):
+            if current.is_variable or not current.ground:
+                continue
+            if not current.arguments:
+                names[current] = current
+                continue
+            constant = application(f"{GROUND_NAME}{len(definitions)}")
+            named = application(current.symbol, tuple(names[a] for a in current.arguments))
+            definitions.append(Clause([Literal(True, application("=", (named, constant)))]))
+            names[current] = constant
+        return names.get(term) or rebuilt(term)
+
+    def rebuilt(term: Term) -> Term:
+        built: dict[Term, Term] = {}
+        for current in post_order(term):
+            if current.ground:
+                built[current] = names[current]
+            else:
+                built[current] = current if current.is_variable else application(
+                    current.symbol, tuple(built[a] for a in current.arguments))
+        return built[term]
+
+    named = [
+        Clause([Literal(l.positive, application(l.atom.symbol, tuple(name(a) for a in l.atom.arguments)))
+                for l in clause.literals])
+        for clause in clauses
+    ]
+    return named + definitions
 
 
 def _signature(atoms) -> tuple[set[Symbol], set[Symbol]]:
@@ -208,6 +253,11 @@ asked before."""
 _REMEMBERED = 256
 
 
+def forget_countermodels() -> None:
+    """Forget the remembered counter-models (between files)."""
+    _FOUND.clear()
+
+
 @nothing_without_search
 def find_countermodel(
     premises: Sequence[Clause | Formula],
@@ -236,8 +286,9 @@ def _search(
     premises: Sequence[Clause | Formula], conclusion: Clause | Formula, max_domain: int, limit: int, conflicts: int
 ) -> Interpretation | None:
     clausification = entailment_clausification(premises, conclusion)
-    clauses = [flatten(clause) for clause in clausification.clauses]
-    _, functions = _signature(literal.atom for clause in clausification.clauses for literal in clause.literals)
+    named = name_ground_terms(clausification.clauses)
+    clauses = [flatten(clause) for clause in named]
+    _, functions = _signature(literal.atom for clause in named for literal in clause.literals)
     own_predicates, own_functions = _signature(a for s in (*premises, conclusion) for a in _atoms(s))
     functions |= own_functions
     for size in range(1, max_domain + 1):
