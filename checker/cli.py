@@ -14,6 +14,7 @@ from checker.record import check_record
 from checker.report import SAFETY_NOTE, render_json, render_text
 from checker.run import check, describe_internal_error
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+from formats.limits import DEFAULT_INPUT_LIMITS, INPUT_LIMIT_NAMES
 
 
 class _Group(click.Group):
@@ -56,6 +57,20 @@ def _limits(settings: tuple[str, ...]) -> SearchLimits:
     return replace(DEFAULT_LIMITS, **changes)
 
 
+def _input_limits(settings: tuple[str, ...]):
+    """The input bounds with each NAME=COUNT setting applied."""
+    changes = {}
+    for setting in settings:
+        name, _, count = setting.partition("=")
+        if name not in INPUT_LIMIT_NAMES or not count.isdigit() or int(count) < 1:
+            raise click.BadParameter(
+                f"`{setting}`: expected NAME=COUNT with NAME one of {', '.join(INPUT_LIMIT_NAMES)} and COUNT a positive whole number",
+                param_hint="--input-limit",
+            )
+        changes[name] = int(count)
+    return replace(DEFAULT_INPUT_LIMITS, **changes)
+
+
 @click.group(cls=_Group)
 @click.version_option(package_name="assay")
 def main() -> None:
@@ -72,6 +87,9 @@ def main() -> None:
 @click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
               help="Raise or lower one bound of the per-step evidence search (counts, never time): "
               + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")
+@click.option("--input-limit", "input_limits", multiple=True, metavar="NAME=COUNT",
+              help="Raise or lower one bound on what is read (larger input is refused as unreadable, exit 2): "
+              + ", ".join(f"{name} (default {getattr(DEFAULT_INPUT_LIMITS, name)})" for name in INPUT_LIMIT_NAMES) + ".")
 @click.option("--require-problem", is_flag=True,
               help="Refuse (exit 2) a certificate with no problem to check its leaves against, instead of "
               "checking it on assumptions: for gates in pipelines.")
@@ -80,16 +98,18 @@ def main() -> None:
 @click.option("--record", "record_path", type=click.Path(dir_okay=False, writable=True),
               help="Also write a check record (JSON with file hashes and scope statement) for a safety case.")
 def check_command(
-    certificates, problem, include_dirs, report_format, all_steps, search_limits, require_problem, jobs, record_path
+    certificates, problem, include_dirs, report_format, all_steps, search_limits, input_limits, require_problem, jobs,
+    record_path,
 ) -> None:
     """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
     limits = _limits(search_limits)
+    bounds = _input_limits(input_limits)
     if record_path and not os.path.isdir(os.path.dirname(os.path.abspath(record_path))):
         raise click.BadParameter(f"no directory to write {record_path} in", param_hint="--record")
     reports: list[Report] = [
-        check(path, problem, include_dirs, limits, jobs, require_problem) for path in certificates
+        check(path, problem, include_dirs, limits, jobs, require_problem, bounds) for path in certificates
     ]
     if report_format == "json":
         click.echo(render_json(reports))

@@ -31,6 +31,7 @@ from checker.plan import make_plan, with_cited_problem_statements
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
+from formats.limits import DEFAULT_INPUT_LIMITS, InputLimits, bounded
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
 from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
@@ -57,13 +58,16 @@ def check(
     limits: SearchLimits = DEFAULT_LIMITS,
     jobs: int = 1,
     require_problem: bool = False,
+    input_limits: InputLimits = DEFAULT_INPUT_LIMITS,
 ) -> Report:
     """Check the certificate at ``path``, against the problem file if given
     (or found), spreading the steps over ``jobs`` processes.  With
     ``require_problem``, a certificate with no problem to link its leaves to
-    is unreadable rather than checked on assumptions."""
+    is unreadable rather than checked on assumptions; ``input_limits``
+    bound what the readers accept."""
     try:
-        return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem)
+        with bounded(input_limits):
+            return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
         if error.excerpt:

@@ -44,6 +44,7 @@ from formats.derivation import (
     Statement,
     UnreadableInput,
 )
+from formats.limits import current_limits
 from formats.tptp import parse_clause, parse_formula, parse_term
 
 VERSION = 1
@@ -182,6 +183,8 @@ def _decode(record: _Record) -> object:
         record.fail(f"not a JSON record: {error.msg}", error.colno)
     except _DuplicateField as error:
         record.fail(f"field '{error.key}' appears twice in one record")
+    except RecursionError:
+        record.fail("not a JSON record: arrays or objects nested too deeply")
     except ValueError as error:
         record.fail(f"not a JSON record: {error}")
 
@@ -381,6 +384,9 @@ def _statement(record: _Record, value: object) -> Statement:
         record.fail("a second header record: the header must be the first record and appear once")
     _check_fields(record, value, "", STATEMENT_REQUIRED, STATEMENT_OPTIONAL)
     name = _text(record, value["name"], "name")
+    limits = current_limits()
+    if len(name) > limits.name_length:
+        record.fail(f"a name of {len(name)} characters; {limits.describe('name_length')}", record.column_of_value("name"))
     role = _choice(record, value["role"], "role", ROLES, "a TPTP role such as \"axiom\" or \"plain\"")
     language = _choice(record, value["language"], "language", LANGUAGES, '"cnf" or "fof"')
     formula = _text(record, value["formula"], "formula")
@@ -419,8 +425,19 @@ def parse_native_header(text: str, path: str = "<string>") -> NativeHeader:
 def parse_native(text: str, path: str = "<string>") -> Document:
     """The statements of a native certificate given as text."""
     _, records = _header_and_records(text, path)
+    _within_statement_limit(text, path)
     statements = tuple(_statement(record, _decode(record)) for record in records)
     return Document(path, statements, format=FORMAT, files=(path,))
+
+
+def _within_statement_limit(text: str, path: str) -> None:
+    """Refuse, before decoding any, more records than the limit allows."""
+    limits = current_limits()
+    if text.count("\n") <= limits.statements:
+        return
+    for index, record in enumerate(_records(text, path)):
+        if index > limits.statements:  # the header, then the statements
+            record.fail(f"more than {limits.statements} statements; {limits.describe('statements')}")
 
 
 def _read_text(path: str) -> str:
