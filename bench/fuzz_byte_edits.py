@@ -59,11 +59,11 @@ def candidates() -> list[Path]:
 
 def edit(data: bytes, rng: random.Random) -> tuple[bytes, list[str]]:
     """One to three random edits: insert a byte or a token, delete, duplicate
-    or overwrite a run, swap two lines."""
+    or overwrite a run, replace a word by another of the file, swap two lines."""
     done = []
     for _ in range(rng.randint(1, 3)):
         at = rng.randrange(len(data) + 1)
-        kind = rng.randrange(6)
+        kind = rng.randrange(7)
         if kind == 0:
             piece = rng.choice(PIECES)
             data, what = data[:at] + piece + data[at:], f"insert {piece!r} at {at}"
@@ -80,6 +80,13 @@ def edit(data: bytes, rng: random.Random) -> tuple[bytes, list[str]]:
             at = min(at, len(data) - 1)
             piece = bytes([rng.randrange(256)])
             data, what = data[:at] + piece + data[at + 1:], f"overwrite {piece!r} at {at}"
+        elif kind == 5:
+            words = re.findall(rb"[A-Za-z_$][A-Za-z0-9_]*", data)
+            if words:
+                old, new = rng.choice(words), rng.choice(words)
+                data, what = data.replace(old, new, 1), f"first {old!r} -> {new!r}"
+            else:
+                what = "no word to replace"
         else:
             lines = data.split(b"\n")
             first, second = rng.randrange(len(lines)), rng.randrange(len(lines))
