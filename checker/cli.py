@@ -25,6 +25,7 @@ from checker.report import SAFETY_NOTE, render_json, render_text
 from checker.run import check, describe_internal_error
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.time_limit import Deadline
+from formats.limits import DEFAULT_INPUT_LIMITS, INPUT_LIMIT_NAMES
 
 
 class _Group(click.Group):
@@ -75,6 +76,20 @@ TIME_LIMIT_OPTION = click.option(
 QUIET_OPTION = click.option("--quiet", is_flag=True, help="Print nothing but errors; the exit code tells the verdict.")
 
 
+def _input_limits(settings: tuple[str, ...]):
+    """The input bounds with each NAME=COUNT setting applied."""
+    changes = {}
+    for setting in settings:
+        name, _, count = setting.partition("=")
+        if name not in INPUT_LIMIT_NAMES or not count.isdigit() or int(count) < 1:
+            raise click.BadParameter(
+                f"`{setting}`: expected NAME=COUNT with NAME one of {', '.join(INPUT_LIMIT_NAMES)} and COUNT a positive whole number",
+                param_hint="--input-limit",
+            )
+        changes[name] = int(count)
+    return replace(DEFAULT_INPUT_LIMITS, **changes)
+
+
 @click.group(cls=_Group)
 @click.version_option(package_name="assay")
 def main() -> None:
@@ -91,6 +106,9 @@ def main() -> None:
 @click.option("--search-limit", "search_limits", multiple=True, metavar="NAME=COUNT",
               help="Raise or lower one bound of the per-step evidence search (counts, never time): "
               + ", ".join(f"{name} (default {getattr(DEFAULT_LIMITS, name)})" for name in LIMIT_NAMES) + ".")
+@click.option("--input-limit", "input_limits", multiple=True, metavar="NAME=COUNT",
+              help="Raise or lower one bound on what is read (larger input is refused as unreadable, exit 2): "
+              + ", ".join(f"{name} (default {getattr(DEFAULT_INPUT_LIMITS, name)})" for name in INPUT_LIMIT_NAMES) + ".")
 @click.option("--require-problem", is_flag=True,
               help="Refuse (exit 2) a certificate with no problem to check its leaves against, instead of "
               "checking it on assumptions: for gates in pipelines.")
@@ -101,13 +119,14 @@ def main() -> None:
 @TIME_LIMIT_OPTION
 @QUIET_OPTION
 def check_command(
-    certificates, problem, include_dirs, report_format, all_steps, search_limits, require_problem, jobs, record_path,
-    time_limit, quiet,
+    certificates, problem, include_dirs, report_format, all_steps, search_limits, input_limits, require_problem, jobs,
+    record_path, time_limit, quiet,
 ) -> None:
     """Check each CERTIFICATE (TPTP derivation or assay's JSON Lines
     certificate); exit 0 accepted, 1 rejected, 2 unreadable, 3 undecided,
     4 internal error (for a batch: the worst)."""
     limits = _limits(search_limits)
+    bounds = _input_limits(input_limits)
     if record_path and not os.path.isdir(os.path.dirname(os.path.abspath(record_path))):
         raise click.BadParameter(f"no directory to write {record_path} in", param_hint="--record")
     deadline = None if time_limit is None else Deadline.after(time_limit)
@@ -118,7 +137,9 @@ def check_command(
             reports.append(Report(path, UNDECIDED, problem=problem,
                                   error=f"not checked: {deadline.describe()} before this file was started"))
         else:
-            reports.append(check(path, problem, include_dirs, limits, jobs, require_problem, deadline, progress))
+            reports.append(
+                check(path, problem, include_dirs, limits, jobs, require_problem, deadline, progress, bounds)
+            )
     progress.finish()
     if quiet:
         for report in reports:

@@ -39,6 +39,7 @@ from checker.steps import StepContext, check_inference
 from checker.tables import file_scope
 from checker.time_limit import TIME_LIMIT_REASON, Deadline, run_before
 from formats.derivation import Document, Location, Origin, Statement, UnreadableInput
+from formats.limits import DEFAULT_INPUT_LIMITS, InputLimits, bounded
 from formats.native import read_native, read_native_header
 from formats.tptp import read_tptp
 
@@ -68,6 +69,7 @@ def check(
     require_problem: bool = False,
     deadline: Deadline | None = None,
     progress: Progress | None = None,
+    input_limits: InputLimits = DEFAULT_INPUT_LIMITS,
 ) -> Report:
     """Check the certificate at ``path``, against the problem file if given
     (or found), spreading the steps over ``jobs`` processes.  With
@@ -75,9 +77,9 @@ def check(
     is unreadable rather than checked on assumptions.  Steps not checked
     before the ``deadline`` are left unchecked (``unproven``, reason
     ``time_limit``) and listed in a caution; ``progress`` hears of every
-    step done."""
+    step done; ``input_limits`` bound what the readers accept."""
     try:
-        with file_scope():
+        with file_scope(), bounded(input_limits):
             return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem, deadline, progress)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"

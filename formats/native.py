@@ -51,6 +51,7 @@ from formats.derivation import (
     Statement,
     UnreadableInput,
 )
+from formats.limits import current_limits
 from formats.tptp import parse_clause, parse_formula, parse_term
 
 VERSION = 1
@@ -212,6 +213,8 @@ def _decode(record: _Record) -> object:
         record.fail(f"not a JSON record: {error.msg}", error.colno)
     except _DuplicateField as error:
         record.fail(f"field '{error.key}' appears twice in one record")
+    except RecursionError:
+        record.fail("not a JSON record: arrays or objects nested too deeply")
     except ValueError as error:
         record.fail(f"not a JSON record: {error}")
 
@@ -448,6 +451,9 @@ def _statement(record: _Record, value: object, version: int = 1) -> Statement:
         record.fail("a second header record: the header must be the first record and appear once")
     _check_fields(record, value, "", STATEMENT_REQUIRED, STATEMENT_OPTIONAL if version == 1 else STATEMENT_OPTIONAL_V2)
     name = _text(record, value["name"], "name")
+    limits = current_limits()
+    if len(name) > limits.name_length:
+        record.fail(f"a name of {len(name)} characters; {limits.describe('name_length')}", record.column_of_value("name"))
     role = _choice(record, value["role"], "role", ROLES, "a TPTP role such as \"axiom\" or \"plain\"")
     languages = LANGUAGES if version == 1 else LANGUAGES_V2
     language = _choice(record, value["language"], "language", languages, " or ".join(f'"{x}"' for x in languages))
@@ -605,8 +611,19 @@ def parse_native_header(text: str, path: str = "<string>") -> NativeHeader:
 def parse_native(text: str, path: str = "<string>") -> Document:
     """The statements of a native certificate given as text."""
     header, records = _header_and_records(text, path)
+    _within_statement_limit(text, path)
     statements = tuple(_statement(record, _decode(record), header.version) for record in records)
     return Document(path, statements, format=FORMAT, files=(path,))
+
+
+def _within_statement_limit(text: str, path: str) -> None:
+    """Refuse, before decoding any, more records than the limit allows."""
+    limits = current_limits()
+    if text.count("\n") <= limits.statements:
+        return
+    for index, record in enumerate(_records(text, path)):
+        if index > limits.statements:  # the header, then the statements
+            record.fail(f"more than {limits.statements} statements; {limits.describe('statements')}")
 
 
 def _read_text(path: str) -> str:

@@ -32,6 +32,7 @@ from checker.kernel.formulas import (
     VERUM,
     Formula,
     atomic,
+    free_variables,
     binary,
     negation,
     quantified,
@@ -48,6 +49,7 @@ from formats.derivation import (
     Statement,
     UnreadableInput,
 )
+from formats.limits import current_limits, too_deep_at
 from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
 from formats.tptp_types import (
     Call,
@@ -382,6 +384,10 @@ class _Builder(Transformer):
             return [] if first is None else [first]
         if more[0] is not None:
             first.append(more[0])
+            limits = current_limits()
+            if len(first) > limits.literals:
+                raise _Misread(f"a clause of more than {limits.literals} literals; {limits.describe('literals')}",
+                               _last_bar[0])
         return first
 
     def single_literal(self, literal):
@@ -544,12 +550,31 @@ def _type_token(node) -> Token:
     return node.token
 
 
+_WORDS = ("LOWER_WORD", "UPPER_WORD", "SINGLE_QUOTED", "DOLLAR_WORD", "DOLLAR_DOLLAR_WORD", "DISTINCT_OBJECT",
+          "INTEGER", "NUMBER")
+_last_bar: list[Token | None] = [None]
+"""The last ``|`` the lexer passed: where a clause grew past the literal limit."""
+
+
+def _bounded_word(token: Token) -> Token:
+    limits = current_limits()
+    if len(token) > limits.name_length:
+        raise _Misread(f"a name of {len(token)} characters; {limits.describe('name_length')}", token)
+    return token
+
+
+def _seen_bar(token: Token) -> Token:
+    _last_bar[0] = token
+    return token
+
+
 _PARSER = Lark(
     (Path(__file__).with_name("tptp.lark")).read_text(encoding="utf-8"),
     parser="lalr",
     start=["tptp_input", "cnf_formula", "fof_formula", "fof_term"],
     transformer=_Builder(),
     maybe_placeholders=False,
+    lexer_callbacks={**{word: _bounded_word for word in _WORDS}, "VBAR": _seen_bar},
 )
 
 
@@ -602,6 +627,13 @@ def _explain(error: UnexpectedCharacters | UnexpectedToken) -> tuple[str, int, i
 def _parse(text: str, start: str, file: str, line: int, column: int, whole: str | None = None):
     """Parse ``text`` from rule ``start``; it begins at (line, column) of
     ``file``, whose full text ``whole`` supplies the excerpt when given."""
+    limits = current_limits()
+    deep = too_deep_at(text, limits.depth)
+    if deep is not None:
+        at_line = text.count("\n", 0, deep) + 1
+        at_column = deep - (text.rfind("\n", 0, deep) + 1) + 1
+        message = f"brackets nested more than {limits.depth} deep; {limits.describe('depth')}"
+        raise _unreadable(message, at_line, at_column, text, file, line, column, whole)
     try:
         return _PARSER.parse(text, start=start)
     except (UnexpectedCharacters, UnexpectedToken) as error:
@@ -742,6 +774,10 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
     notices: list[Notice] = []
     signature = Signature()
     files = [path]
+    _within_statement_limit(text, path)
+    allowed = None  # text that is not a file's has no directory of its own to keep includes in
+    if identity is not None:
+        allowed = tuple(os.path.realpath(directory) for directory in (os.path.dirname(identity), *include_dirs))
     root = _Frame(path, identity, text, scan(text, path), [])
     stack = [root]
     while stack:
@@ -778,6 +814,7 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
                 read.file_name, frame.path, include_dirs, location, frame.text
             )
             target_identity = _identity(target)
+            _refuse_outside(read.file_name, target_identity, allowed, location, frame.text)
             opened = [f.identity for f in stack]
             if target_identity in opened:
                 cycle = [f.path for f in stack[opened.index(target_identity):]] + [target]
@@ -787,6 +824,7 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
                     _excerpt_at(frame.text, location),
                 )
             included = _file_text(target, location)
+            _within_statement_limit(included, target)
             files.append(target)
             stack.append(
                 _Frame(
@@ -798,7 +836,57 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
             frame.statements.append(
                 Statement(read.name, read.role, read.language, read.content, location, read.source, read.sorts)
             )
+            notices.extend(_free_variable_notice(read, location))
     return Document(path, tuple(root.statements), tuple(notices), "tptp", tuple(files))
+
+
+def _within_statement_limit(text: str, path: str) -> None:
+    """Refuse, before parsing any, a file with more statements than the
+    limit allows (each is at least 15 characters, so most files pass at
+    the cost of their length)."""
+    limit = current_limits().statements
+    if len(text) <= 15 * limit:
+        return
+    count = 0
+    for chunk in scan(text, path):
+        if isinstance(chunk, StatementText):
+            count += 1
+            if count > limit:
+                location = Location(path, chunk.line, chunk.column)
+                raise UnreadableInput(
+                    f"more than {limit} statements in one file; {current_limits().describe('statements')}",
+                    location, _excerpt_at(text, location),
+                )
+
+
+def _refuse_outside(
+    file_name: str, target: str, allowed: tuple[str, ...] | None, location: Location, whole: str
+) -> None:
+    """An include in a file may reach only into that file's directory and
+    the include directories (and their subdirectories): a derivation must
+    not make assay read other files."""
+    if allowed is not None and not any(os.path.commonpath((target, directory)) == directory for directory in allowed):
+        raise UnreadableInput(
+            f"included file '{file_name}' is outside the allowed directories ({', '.join(allowed)}); "
+            "add its directory with --include-dir if it is meant to be read",
+            location,
+            _excerpt_at(whole, location),
+        )
+
+
+def _free_variable_notice(read: _Annotated, location: Location) -> list[Notice]:
+    """A formula statement with free variables: read as universally
+    quantified, but the standard's formulas are closed, so a bracketing
+    slip (``! [X] : p(X) => q(X)``) would silently change what it says."""
+    if read.language == "cnf" or not isinstance(read.content, Formula):
+        return []
+    free = sorted(variable.symbol for variable in free_variables(read.content))
+    if not free:
+        return []
+    plural = "variables" if len(free) > 1 else "variable"
+    return [Notice(f"{read.language} formula {read.name} has the free {plural} {', '.join(free)} "
+                   "(read as universally quantified; the standard's formulas are closed: check the brackets)",
+                   location)]
 
 
 def _typed(read: _Annotated, signature: Signature, chunk: StatementText, frame: _Frame) -> _Annotated | None:

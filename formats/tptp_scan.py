@@ -15,6 +15,7 @@ from collections.abc import Iterator
 from dataclasses import dataclass
 
 from formats.derivation import Location, UnreadableInput
+from formats.limits import current_limits
 
 _KEYWORD = re.compile(r"(cnf|fof|tff|thf|tcf|tpi|include)[ \t\r\n\f\v]*\(")
 _BLANK = re.compile(r"[ \t\r\f\v]*")
@@ -45,11 +46,29 @@ class SkippedText:
     lines: int
 
 
+_EXCERPT_WIDTH = 120
+
+
 def excerpt(line_text: str, column: int) -> str:
-    """The offending line with a caret under ``column`` (1-based)."""
+    """The offending line with a caret under ``column`` (1-based); a long
+    line is cut to a window around the column, marked with ``...``."""
     line_text = line_text.rstrip("\r")
+    if len(line_text) > _EXCERPT_WIDTH:
+        start = max(0, min(column - 1 - _EXCERPT_WIDTH // 2, len(line_text) - _EXCERPT_WIDTH))
+        shown = line_text[start : start + _EXCERPT_WIDTH]
+        before, after = ("..." if start else ""), ("..." if start + _EXCERPT_WIDTH < len(line_text) else "")
+        line_text, column = before + shown + after, column - start + len(before)
     pad = "".join("\t" if c == "\t" else " " for c in line_text[: column - 1])
     return f"{line_text}\n{pad}^"
+
+
+class _TooDeep(Exception):
+    """Brackets open past the depth limit, at ``offset``: the scan stops
+    there rather than walk a hostile statement to its end."""
+
+    def __init__(self, offset: int):
+        super().__init__(offset)
+        self.offset = offset
 
 
 def _statement_end(text: str, position: int) -> int:
@@ -57,7 +76,7 @@ def _statement_end(text: str, position: int) -> int:
     before ``position``; if the full stop is missing, the offset after the
     closing bracket, and if that is missing too, the end of the text (the
     parser then says what is wrong)."""
-    depth = 1
+    depth, limit = 1, current_limits().depth
     while True:
         found = _INSIDE.search(text, position)
         if found is None:
@@ -65,6 +84,8 @@ def _statement_end(text: str, position: int) -> int:
         mark, position = found.group(), found.end()
         if mark == "(":
             depth += 1
+            if depth > limit:
+                raise _TooDeep(found.start())
         elif mark == ")":
             depth -= 1
             if depth == 0:
@@ -122,7 +143,18 @@ def scan(text: str, file: str) -> Iterator[StatementText | SkippedText]:
             if run is not None:
                 yield SkippedText(run[0], run[1], run_lines)
                 run = None
-            end = _statement_end(text, keyword.end())
+            try:
+                end = _statement_end(text, keyword.end())
+            except _TooDeep as deep:
+                at_line = line + text.count("\n", position, deep.offset)
+                column = deep.offset - (text.rfind("\n", 0, deep.offset) + 1) + 1
+                newline = text.find("\n", deep.offset)
+                limits = current_limits()
+                raise UnreadableInput(
+                    f"brackets nested more than {limits.depth} deep; {limits.describe('depth')}",
+                    Location(file, at_line, column),
+                    excerpt(text[text.rfind("\n", 0, deep.offset) + 1 : len(text) if newline < 0 else newline], column),
+                ) from None
             yield StatementText(
                 keyword.group(1), text[position:end], line, position - line_start + 1
             )
