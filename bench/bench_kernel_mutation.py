@@ -9,6 +9,7 @@ checker/kernel/MUTANTS.md (equivalent, or killed by a test added since).
 
 Prints figures, asserts nothing.  Usage:
     python3 bench/bench_kernel_mutation.py [--jobs N] [--scratch DIR] [--examples N]
+        [--module substitution.py --tests test_substitution.py ...]   (a part of the kernel)
 Needs ``pip install mutmut`` (3.x).  Takes an hour or more on two cores.
 """
 
@@ -34,7 +35,7 @@ settings.load_profile("kernel-mutation")
 '''
 
 
-def prepare(scratch: Path, examples: int) -> None:
+def prepare(scratch: Path, examples: int, modules: list[str], tests: list[str]) -> None:
     """A copy of the project with only the kernel's tests, and mutmut's settings."""
     if scratch.exists():
         shutil.rmtree(scratch)
@@ -46,7 +47,12 @@ def prepare(scratch: Path, examples: int) -> None:
     conftest = "\n".join(line for line in conftest.splitlines() if not line.startswith("pytest_plugins"))
     (scratch / "tests" / "conftest.py").write_text(conftest + PROFILE.format(examples=examples), encoding="utf-8")
     also = sorted(str(p.relative_to(scratch)) for p in (scratch / "checker").iterdir() if p.name != "kernel")
-    lines = ["[mutmut]", "paths_to_mutate=checker/kernel/", "tests_dir=tests/kernel/", "also_copy="]
+    mutated = [f"checker/kernel/{m}" for m in modules] or ["checker/kernel/"]
+    kernel_tests = [f"tests/kernel/{t}" for t in tests] or ["tests/kernel/"]
+    lines = ["[mutmut]", "paths_to_mutate=", *(f"    {m}" for m in mutated), "tests_dir=", *(f"    {t}" for t in kernel_tests)]
+    if modules:
+        also = [*also, *(f"checker/kernel/{p.name}" for p in (ROOT / "checker" / "kernel").glob("*.py") if p.name not in modules)]
+    lines.append("also_copy=")
     lines += [f"    {path}" for path in [*also, "formats"]]
     (scratch / "setup.cfg").write_text("\n".join(lines) + "\n", encoding="utf-8")
 
@@ -71,9 +77,11 @@ def main() -> None:
     parser.add_argument("--scratch", type=Path, default=Path("/tmp/assay-kernel-mutation"))
     parser.add_argument("--examples", type=int, default=20, help="hypothesis examples per property test")
     parser.add_argument("--report-only", action="store_true", help="print the figures of an earlier run")
+    parser.add_argument("--module", action="append", default=[], help="mutate only this kernel file (repeatable)")
+    parser.add_argument("--tests", action="append", default=[], help="run only this file of tests/kernel (repeatable)")
     options = parser.parse_args()
     if not options.report_only:
-        prepare(options.scratch, options.examples)
+        prepare(options.scratch, options.examples, options.module, options.tests)
         subprocess.run([*MUTMUT, "run", "--max-children", str(options.jobs)],
                        cwd=options.scratch, check=False)
     pairs = results(options.scratch)

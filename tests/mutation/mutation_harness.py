@@ -16,9 +16,9 @@ reader read it (premises = its parents, or the problem for a leaf).  Then:
 from __future__ import annotations
 
 import os
-from contextlib import contextmanager
 import tempfile
 from collections import Counter, defaultdict
+from contextlib import contextmanager
 from dataclasses import dataclass
 
 from mutation_formats import is_leaf
@@ -30,7 +30,7 @@ from checker.kernel.formulas import NOT, make
 from checker.report import report_json
 from checker.run import check, read_document
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
-from formats.derivation import Inference, Origin, UnreadableInput
+from formats.derivation import Inference, UnreadableInput
 from formats.tptp import read_tptp
 
 FALSE_ACCEPT = "false accept"
@@ -62,8 +62,9 @@ def reading_once():
     problem of a fixture is the same for all its mutants, and a mutant is read
     by the judge and by the check.  The reader is a pure function of the
     text, so the checks are the same; only faster."""
-    import checker.run as run
     import mutation_harness as harness
+
+    from checker import run
 
     cache: dict[tuple, object] = {}
     original = run.read_tptp
@@ -95,7 +96,7 @@ def reusing_checked_steps():
     hide a failure of an unchanged step caused by the mutation elsewhere,
     such as a symbol that is no longer fresh; such a mutant then shows up
     as accepted, or fails at the mutated step.)"""
-    import checker.run as run
+    from checker import run
 
     cache: dict = {}
     original = run.check_inference
@@ -122,23 +123,19 @@ def reusing_checked_steps():
         run.check_inference = original
 
 
-def _leaf_premises(statement, problem) -> list:
-    """A leaf is sound if it follows from the problem's axioms (a satisfiable
-    set), or from the problem statement it cites (a negated conjecture, or a
-    conjecture negated); the axioms and the negated conjecture together are
-    unsatisfiable, so they are never taken at once."""
-    cited = statement.source.detail[1] if isinstance(statement.source, Origin) and len(statement.source.detail) > 1 else None
+def leaf_justifications(problem) -> list[list]:
+    """What a leaf may follow from: the problem's axioms (a satisfiable set),
+    or one negated conjecture (a conjecture negated) alone.  The axioms and
+    the negated conjecture together are unsatisfiable, so they are never
+    taken at once: a leaf is unsound when each of these has a counter-model."""
     axioms = [s.content for s in problem if s.role not in ("conjecture", "negated_conjecture")]
-    for s in problem:
-        if s.name == cited and s.role in ("conjecture", "negated_conjecture"):
-            return [make(NOT, (s.content,)) if s.role == "conjecture" else s.content]
-    return axioms
+    negated = [[make(NOT, (s.content,)) if s.role == "conjecture" else s.content]
+               for s in problem if s.role in ("conjecture", "negated_conjecture")]
+    return [axioms, *negated]
 
 
 def _premises(statement, statements: dict, problem) -> list | None:
-    """What the step's claim must follow from, or None if a parent is missing."""
-    if is_leaf(statement):
-        return _leaf_premises(statement, problem)
+    """What an inference step's claim must follow from, or None if a parent is missing."""
     premises = []
     by_name = {s.name: s for s in problem}
     stack = [statement.source]
@@ -180,6 +177,13 @@ def judge(mutant: Mutant, path: str) -> str:
     statement = statements.get(mutant.step)
     if statement is None or (is_leaf(statement) and not problem):
         return "undecided"
+    if is_leaf(statement):
+        groups = leaf_justifications(problem)
+        if any(is_interpreted(p) for group in groups for p in group) or is_interpreted(statement.content):
+            return "undecided"
+        if all(countermodel_size(group, statement.content) is not None for group in groups):
+            return UNSOUND
+        return "undecided"  # a leaf must be the problem's own statement, not just follow from the problem
     premises = _premises(statement, statements, problem)
     if premises is None or any(is_interpreted(p) for p in [*premises, statement.content]):
         return "undecided"
@@ -188,18 +192,18 @@ def judge(mutant: Mutant, path: str) -> str:
         original_premises = _premises(original, _ORIGINALS[str(mutant.fixture.path)][0], problem)
         if original_premises is None or countermodel_size(original_premises, original.content, (1, 2)) is not None:
             return "undecided"  # an assumption or a step of its own kind: not a plain consequence
-    if original is not None and original.name in background:
+    introduction = original is not None and original.name in background
+    if introduction and mutant.kind not in ("sign_flip", "dropped_literal", "quantifier_flip", "empty_clause_early"):
         # An introduction: judged only where the change leaves the introduced symbols
         # alone, against the valid introduction as well.
-        if mutant.kind not in ("sign_flip", "dropped_literal", "quantifier_flip", "empty_clause_early"):
-            return "undecided"
+        return "undecided"
     extra = [content for name, content in background.items() if name != mutant.step]
     if original is not None and original.name in background:
         extra.append(background[original.name])
     if countermodel_size([*premises, *extra], statement.content) is not None:
         return UNSOUND
-    if not is_leaf(statement) and ground_entailment(premises, statement.content):
-        return SOUND  # a leaf must be the problem's own statement, not just follow from the problem
+    if ground_entailment(premises, statement.content):
+        return SOUND
     return "undecided"
 
 

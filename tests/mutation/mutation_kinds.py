@@ -19,7 +19,7 @@ from pathlib import Path
 from mutation_formats import FORMATS, Record, is_leaf, parent_names
 
 from checker.kernel.clauses import Clause, Literal
-from checker.kernel.formulas import ATOM, BINARY, EXISTS, FORALL, FALSUM, NOT, Formula, make
+from checker.kernel.formulas import ATOM, BINARY, EXISTS, FALSUM, FORALL, NOT, Formula, make
 from checker.kernel.terms import application, replace_at, subterms
 from formats.derivation import Inference, Origin
 from formats.tptp import read_tptp
