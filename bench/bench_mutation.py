@@ -26,21 +26,22 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[1]
 sys.path[:0] = [str(ROOT), str(ROOT / "tests" / "mutation")]
 
-from mutation_harness import (  # noqa: E402
+from mutation_harness import (
     ACCEPTED_UNDECIDED,
     FALSE_ACCEPT,
     FALSE_REJECTION,
     INTERNAL_ERROR,
     UNPROVEN_THEN_LATER,
     WRONG_STEP,
+    Outcome,
     reading_once,
     reusing_checked_steps,
     run_mutant,
     tally,
 )
-from mutation_kinds import fixtures, mutants  # noqa: E402
+from mutation_kinds import fixtures, mutants
 
-from checker.search.reconstruct import DEFAULT_LIMITS  # noqa: E402
+from checker.search.reconstruct import DEFAULT_LIMITS
 
 _CONTEXTS: list = []
 _LIMITS = DEFAULT_LIMITS
@@ -73,7 +74,14 @@ def main() -> None:
     parser.add_argument("--out", type=Path, default=Path("mutation_outcomes.jsonl"))
     parser.add_argument("--limits-scale", type=float, default=1.0, help="every search bound times this factor")
     parser.add_argument("--no-reuse", action="store_true", help="check every step of every mutant afresh")
+    parser.add_argument("--summarize", type=Path, help="print the figures of an earlier (perhaps partial) run's --out file")
     options = parser.parse_args()
+    if options.summarize:
+        with options.summarize.open(encoding="utf-8") as lines:
+            outcomes = [Outcome(**json.loads(line)) for line in lines if line.strip()]
+        print(f"{len(outcomes)} mutants (from {options.summarize})\n")
+        summarize(outcomes)
+        return
     global _LIMITS
     _LIMITS = DEFAULT_LIMITS.scaled(options.limits_scale) if options.limits_scale != 1.0 else DEFAULT_LIMITS
     chosen = [f for f in fixtures() if not options.shape or f.shape in options.shape]
@@ -97,6 +105,10 @@ def main() -> None:
                 print(f"  {n} checked, {time.perf_counter() - start:.0f} s", flush=True)
     seconds = time.perf_counter() - start
     print(f"\n{len(outcomes)} mutants in {seconds:.0f} s ({len(outcomes) / seconds:.1f} mutants/s, {options.jobs} jobs)\n")
+    summarize(outcomes)
+
+
+def summarize(outcomes: list[Outcome]) -> None:
     print(tally(outcomes))
     by_shape: dict[str, int] = {}
     for outcome in outcomes:

@@ -258,7 +258,9 @@ def mutants(fixture: Fixture) -> list[Mutant]:
         if renderable:
             edits = clause_edits(content, literals) if isinstance(content, Clause) else formula_edits(content)
             for kind, changed in edits:
-                weakening = kind == "added_literal" and not is_leaf(statement)  # a leaf must be the problem's
+                # A weaker claim is sound, but a leaf must be the problem's statement and a
+                # negated conjecture exactly the conjecture's negation: those stay undecided.
+                weakening = kind == "added_literal" and not is_leaf(statement) and statement.role != "negated_conjecture"
                 add(kind, name, replaced(record, plugin.write(record, content=changed)), SOUND if weakening else JUDGED)
             for changed in symbol_swaps(content, signature, rng):
                 add("symbol_swap", name, replaced(record, plugin.write(record, content=changed)), JUDGED)
