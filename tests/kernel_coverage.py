@@ -54,14 +54,14 @@ def pytest_collection_finish(session):
     if _measure is None:
         return
     _measure.stop()
-    files = {Path(str(item.fspath)) for item in session.items if KERNEL_TESTS in Path(str(item.fspath)).parents}
+    files = {item.path for item in session.items if KERNEL_TESTS in item.path.parents}
     if files != set(KERNEL_TESTS.glob("test_*.py")):
         _measure = None  # not every kernel test runs: coverage would say nothing
 
 
 @pytest.hookimpl(hookwrapper=True)
 def pytest_runtest_call(item):
-    measuring = _measure is not None and KERNEL_TESTS in Path(str(item.fspath)).parents
+    measuring = _measure is not None and KERNEL_TESTS in item.path.parents
     if measuring:
         _measure.start()
     try:

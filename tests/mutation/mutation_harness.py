@@ -21,7 +21,7 @@ from collections import Counter, defaultdict
 from contextlib import contextmanager
 from dataclasses import dataclass
 
-from mutation_formats import is_leaf
+from mutation_formats import is_leaf, origin_file
 from mutation_kinds import SOUND, UNSOUND, Mutant, symbols
 from mutation_oracle import countermodel_size, ground_entailment, is_interpreted
 
@@ -177,6 +177,8 @@ def judge(mutant: Mutant, path: str) -> str:
     statement = statements.get(mutant.step)
     if statement is None or (is_leaf(statement) and not problem):
         return "undecided"
+    if is_leaf(statement) and origin_file(statement) is None:
+        return "undecided"  # an introduced leaf (a definition, an assumption): any fresh one may do
     if is_leaf(statement):
         groups = leaf_justifications(problem)
         if any(is_interpreted(p) for group in groups for p in group) or is_interpreted(statement.content):
@@ -192,14 +194,12 @@ def judge(mutant: Mutant, path: str) -> str:
         original_premises = _premises(original, _ORIGINALS[str(mutant.fixture.path)][0], problem)
         if original_premises is None or countermodel_size(original_premises, original.content, (1, 2)) is not None:
             return "undecided"  # an assumption or a step of its own kind: not a plain consequence
-    introduction = original is not None and original.name in background
-    if introduction and mutant.kind not in ("sign_flip", "dropped_literal", "quantifier_flip", "empty_clause_early"):
-        # An introduction: judged only where the change leaves the introduced symbols
-        # alone, against the valid introduction as well.
+    if original is not None and original.name in background:
+        # An introduction (Skolemization, definition): another definition of a fresh
+        # symbol, or another witness, may be just as sound; only the kinds that
+        # are wrong by construction (reuse, missing argument) are judged.
         return "undecided"
     extra = [content for name, content in background.items() if name != mutant.step]
-    if original is not None and original.name in background:
-        extra.append(background[original.name])
     if countermodel_size([*premises, *extra], statement.content) is not None:
         return UNSOUND
     if ground_entailment(premises, statement.content):
