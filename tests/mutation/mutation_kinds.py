@@ -338,7 +338,8 @@ def symbols(content) -> set[tuple[str, int]]:
 
 def _introduction_mutants(fixture, plugin, records, i, problem, text, signature, rng, start) -> list[Mutant]:
     """A symbol this statement introduces (in no parent, no earlier record, not the problem's):
-    replaced by a symbol that already exists, or with its last argument missing."""
+    replaced by a symbol that already exists, or with its last argument missing.  Judged by
+    the oracle: a reused symbol can turn the step into a plain consequence of its parents."""
     record = records[i]
     statement = record.statement
     if not (fixture.format == "native" or statement.language in ("cnf", "fof")):
@@ -371,12 +372,12 @@ def _introduction_mutants(fixture, plugin, records, i, problem, text, signature,
             changed = _rename_symbol(statement.content, symbol, arity, rng.choice(existing), arity)
             found.append(Mutant(fixture, kind, statement.name,
                                 text[: record.start] + plugin.write(record, content=changed) + text[record.end :],
-                                UNSOUND, start + len(found)))
+                                JUDGED, start + len(found)))
         if arity >= 1 and not is_predicate and "skolem" in (rule + origin).lower():
             changed = _rename_symbol(statement.content, symbol, arity, symbol, arity - 1)
             found.append(Mutant(fixture, "skolem_missing_argument", statement.name,
                                 text[: record.start] + plugin.write(record, content=changed) + text[record.end :],
-                                UNSOUND, start + len(found)))
+                                JUDGED, start + len(found)))
     return found
 
 
