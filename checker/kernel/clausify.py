@@ -213,10 +213,11 @@ class _Clausifier:
                 product: list[Literals] = [()]
                 for part in parts:
                     if self.naming and len(product) * len(part) > DISTRIBUTION_LIMIT:
+                        # The product never exceeds the limit (each round keeps it
+                        # within or names it), so here the part has several clauses.
                         if len(product) > 1:
                             product = self.name_clauses(product, definition_clauses)
-                        if len(part) > 1:
-                            part = self.name_clauses(part, definition_clauses)
+                        part = self.name_clauses(part, definition_clauses)
                     product = [a + b for a in product for b in part]
                 results.append(product)
                 continue

@@ -191,6 +191,24 @@ def test_named_clause_sets_of_large_formulas_stay_conservative():
         assert_conservative(formula, result)
 
 
+
+def test_a_first_disjunct_too_large_to_multiply_out_is_named_alone():
+    # Plaisted and Greenbaum's naming (from memory): a disjunct with more
+    # clauses than the limit becomes one fresh atom, here while nothing has
+    # been multiplied yet, so only the disjunct is named; checked against
+    # SymPy and python-sat by assert_conservative.
+    p, q, r, s = (atom(n) for n in NAMES)
+    parts = [p, q, r, s, binary(OR, p, q), binary(OR, q, r), binary(OR, r, s), binary(OR, s, p), binary(OR, p, r)]
+    assert len(parts) == DISTRIBUTION_LIMIT + 1
+    large = parts[0]
+    for part in parts[1:]:
+        large = binary(AND, large, part)
+    formula = binary(OR, large, negation(q))
+    result = clausify([formula])
+    assert len(result.fresh_symbols) == 1
+    assert len(result.clauses) == len(parts) + 1
+    assert_conservative(formula, result)
+
 # --- deep input ---------------------------------------------------------------
 
 

@@ -103,3 +103,11 @@ def test_agrees_with_logical_unification_on_ground_bindings(term, bindings):
     # which a simultaneous substitution does not).
     library_bindings = {library_variable(v.symbol): to_library(t) for v, t in bindings.items()}
     assert from_library(reify(to_library(term), library_bindings)) is Substitution(bindings)(term)
+
+
+def test_bindings_are_listed_in_the_order_of_their_variables():
+    # Common practice: a report lists a substitution by variable name, whatever
+    # the terms bound, so that the same substitution always reads the same.
+    substitution = Substitution({Y: a, X: b})
+    assert [variable.symbol for variable, _ in substitution.items_sorted()] == ["X", "Y"]
+    assert repr(substitution) == "{X -> b, Y -> a}"
