@@ -153,7 +153,7 @@ def _follows(premises: Sequence[Formula], conclusion: Formula, limits: SearchLim
     give=lambda args, kwargs, definition: definition,
     nothing=lambda: None,
 )
-@lru_cache(maxsize=256)
+@lru_cache(maxsize=256)  # cleared between files (checker/tables.py)
 def choose_definition(symbol: Symbol, introductions: tuple[Introduction, ...], limits: SearchLimits) -> Formula | None:
     """The proposal (from the first introduction's premises) with which the
     most introductions follow from their premises, the first such; None
@@ -176,3 +176,8 @@ def choose_definition(symbol: Symbol, introductions: tuple[Introduction, ...], l
 def introduction(premises: Sequence[Clause | Formula], conclusion: Clause | Formula) -> Introduction:
     """An introducing step as :func:`choose_definition` takes it."""
     return tuple(_closed(p) for p in premises), _closed(conclusion)
+
+
+def forget_definitions() -> None:
+    """Forget the definitions chosen so far (between files)."""
+    choose_definition.__wrapped__.cache_clear()
