@@ -7,7 +7,8 @@ definition over a finite domain, equality as identity: textbook semantics,
 common practice), on the file as read back by the TPTP reader.  For the
 valid derivations, every step whose status claims consequence and that
 introduces no symbol must give a reproducer whose conjecture follows:
-a refutation of axioms ∧ ¬conjecture replayed by the kernel.
+a refutation of axioms ∧ ¬conjecture replayed by the kernel, or a cover
+of the conjecture's clauses by the axioms' that the kernel re-checks.
 """
 
 from __future__ import annotations
@@ -22,7 +23,7 @@ from checker.freshness import new_symbols
 from checker.kernel.entailment import check_entailment
 from checker.kernel.formulas import AND, ATOM, EXISTS, FALSE, FORALL, IFF, IMPLIES, NAND, NOR, NOT, OR, TRUE, XOR
 from checker.opened import open_derivation
-from checker.search.entailment import find_entailment
+from checker.search.entailment import find_consequence
 from checker.search.reconstruct import DEFAULT_LIMITS
 from formats.tptp import read_tptp
 
@@ -107,9 +108,10 @@ def test_reproducers_of_valid_steps_are_kernel_checked_entailments(folder, tmp_p
     shown = 0
     for reproducer in _consequence_steps(opened):
         axioms, conjecture = _read_back(reproducer, tmp_path)
-        refutation = find_entailment(axioms, conjecture.content, DEFAULT_LIMITS)
-        assert refutation is not None, f"{reproducer.step}: no refutation found"
-        assert check_entailment(axioms, conjecture.content, refutation) is None
+        # A refutation, or a cover for a step that only reshapes its premises.
+        evidence = find_consequence(axioms, conjecture.content, DEFAULT_LIMITS)
+        assert evidence is not None, f"{reproducer.step}: no evidence found"
+        assert check_entailment(axioms, conjecture.content, evidence) is None
         shown += 1
     assert shown > 0
 
