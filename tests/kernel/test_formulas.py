@@ -49,7 +49,7 @@ from checker.kernel.formulas import (
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import application, variable
 
-X, Y, Z, W = (variable(n) for n in "XYZW")
+X, Y, Z, W, U = (variable(n) for n in "XYZWU")
 pump = application("pump")
 tank = application("tank")
 
@@ -314,6 +314,16 @@ def test_substitution_skips_names_already_used_when_renaming():
     formula = forall([Y], binary(AND, feeds(X, Y), opened(variable("Y1"))))
     instance = substitute_free(formula, Substitution({X: Y}))
     assert instance is forall([variable("Y2")], binary(AND, feeds(Y, variable("Y2")), opened(variable("Y1"))))
+
+
+def test_substitution_renames_two_capturing_binders_apart():
+    # Capture-avoiding substitution, renaming each binder the new term
+    # would capture (common practice): both bound Y and Z meet drain(Y, Z).
+    formula = forall([Y, Z], feeds(X, Y))
+    term = application("drain", (Y, Z))
+    instance = substitute_free(formula, Substitution({X: term}))
+    assert instance is forall([variable("Y1"), variable("Z1")], feeds(term, variable("Y1")))
+    assert alpha_equivalent(instance, forall([U, W], feeds(term, U)))
 
 
 def test_substitution_leaves_bound_occurrences_and_untouched_formulas_alone():
