@@ -31,7 +31,7 @@ def _forget_memos() -> None:
     leaves._entailment.cache_clear()
     leaves.forget_indexed_problem()
     restatement.shape_of.cache_clear()
-    namings.choose_definition.cache_clear()
+    namings.choose_definition.__wrapped__.cache_clear()  # the findings hook wraps the memo
     models.forget_countermodels()
 
 
