@@ -8,11 +8,11 @@ place where reading stopped, and an unexpected error inside assay gives an
 
 from __future__ import annotations
 
-from dataclasses import replace
 import os
 import traceback
 from collections import Counter
 from collections.abc import Sequence
+from dataclasses import replace
 
 from checker.assumptions import check_branch_step, trace_branches
 from checker.certified_steps import checked_with_findings, shared_answers
