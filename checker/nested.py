@@ -184,6 +184,10 @@ def check_with_nested(
     if cheap_step is not None:
         passes.insert(0, (cheap_step, choices))
     for check, tried in passes:
+        bases = len(tried) if check is cheap_step else FULL_COMBINATIONS
+        through = _through_rewrites(outer, nested, statements, options, check, bases)
+        if through is not None:
+            return through
         for choice in tried:
             parents = [
                 _stand_in(by_name[name], content) if option is not None else statements[name]
@@ -198,6 +202,65 @@ def check_with_nested(
                 note_nested([*(_stated(step, picked[step.name]) for step in nested), _named(outer)])
                 return [*results, result]
     return _coarse(outer, nested, statements, check_step, options)
+
+
+def _through_rewrites(
+    outer: Step,
+    nested: Sequence[Step],
+    statements: dict[str, Statement],
+    options: dict[str, list[Option]],
+    check: CheckStep,
+    count: int,
+) -> list[StepResult] | None:
+    """A chain of rewriting records (``rw(rw(rw(B, e1), e2), e3)``) checked
+    as one: the outer step from each option of its base record ``B`` and
+    all the equations the chain cites, so that a rewrite the options of an
+    intermediate record missed (an equation used in an order of the
+    prover's own) is still found.  The records in between are covered by
+    that check; their conclusions are not used.  None when the outer step
+    is no such chain or none of the first ``count`` options of the base
+    lets it follow."""
+    by_name = {step.name: step for step in nested}
+    skipped: list[Step] = []
+    record, equations = outer, []
+    while is_rewriting(record.inference.rule) and record.parents:
+        equations = [*record.parents[1:], *equations]
+        if record.parents[0] not in by_name:
+            base = record.parents[0]
+            break
+        record = by_name[record.parents[0]]
+        if not is_rewriting(record.inference.rule):
+            base = record.name
+            break
+        skipped.append(record)
+    else:
+        return None
+    cited = list(dict.fromkeys(equations))
+    if not skipped or base in cited or any(name in by_name or name not in statements for name in cited):
+        return None
+    flattened = Step(outer.name, outer.statement, outer.inference, (base, *cited), (None,) * (1 + len(cited)),
+                     outer.location)
+    written = [statements[name] for name in cited]
+    bases = [(_stand_in(by_name[base], o.content), o) for o in options.get(base, [])] if base in by_name else [
+        (statements[base], None)] if base in statements else []
+    for parent, option in bases[:count]:
+        result = check(flattened, [parent, *written])
+        if result.outcome != RECONSTRUCTED:
+            continue
+        picked = {} if option is None else {base: option}
+        rest = [step for step in nested if step not in skipped]
+        results = _settled(rest, picked)
+        covered = [
+            StepResult(step.name, RECONSTRUCTED, step.inference.rule,
+                       f"conclusion not stated; covered by the check of `{outer.name}` from `{base}` and the "
+                       f"equations the rewriting records cite", step.location)
+            for step in skipped
+        ]
+        note_nested([*(_stated(step, picked[step.name]) for step in rest), _named(flattened)])
+        by_order = {result.name: result for result in (*results, *covered)}
+        message = f"{result.message} (checked from {', '.join(flattened.parents)}, through its rewriting records)"
+        return [*(by_order[step.name] for step in nested), replace(result, message=message)]
+    return None
 
 
 def _named(step: Step) -> Statement:
