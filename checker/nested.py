@@ -184,10 +184,6 @@ def check_with_nested(
     if cheap_step is not None:
         passes.insert(0, (cheap_step, choices))
     for check, tried in passes:
-        bases = len(tried) if check is cheap_step else FULL_COMBINATIONS
-        through = _through_rewrites(outer, nested, statements, options, check, bases)
-        if through is not None:
-            return through
         for choice in tried:
             parents = [
                 _stand_in(by_name[name], content) if option is not None else statements[name]
@@ -201,6 +197,10 @@ def check_with_nested(
                 results = _settled(nested, picked)
                 note_nested([*(_stated(step, picked[step.name]) for step in nested), _named(outer)])
                 return [*results, result]
+        bases = len(tried) if check is cheap_step else FULL_COMBINATIONS
+        through = _through_rewrites(outer, nested, statements, options, check, bases)
+        if through is not None:
+            return through
     return _coarse(outer, nested, statements, check_step, options)
 
 

@@ -218,3 +218,43 @@ def test_cheap_bounds_search_no_counter_model(tmp_path):
     quick = check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"), limits=cheap)
     assert step(full, "c1").outcome == REFUTED
     assert step(quick, "c1").outcome == UNPROVEN
+
+
+# Fourteen crates, each at the dock's alias; the prover's first rewrite is
+# at the last crate, beyond the guesses kept for a record, so the chain of
+# rewriting records is checked as one from its base and cited equations.
+MANIFEST_ARGS = ", ".join(f"alias(k{i})" for i in range(14))
+MANIFEST = f"""
+cnf(alias_is_dock, axiom, alias(X) = dock(X)).
+cnf(dock_is_bay, axiom, dock(k13) = bay).
+cnf(unrelated, axiom, dock(k0) = yard).
+cnf(manifest, axiom, held({MANIFEST_ARGS})).
+fof(goal, conjecture, held({MANIFEST_ARGS.replace("alias(k13)", "bay")})).
+"""
+
+
+def _manifest_proof(claim_last: str) -> str:
+    args = ", ".join([*(f"alias(k{i})" for i in range(13)), claim_last])
+    return f"""
+cnf(c1, plain, held({args}),
+    inference(rw, [status(thm)], [inference(rw, [status(thm)], [manifest, alias_is_dock]), dock_is_bay])).
+fof(n, negated_conjecture, ~ held({MANIFEST_ARGS.replace("alias(k13)", "bay")}),
+    inference(assume_negation, [status(cth)], [goal])).
+cnf(c2, plain, $false, inference(resolve, [status(thm)], [c1, n])).
+"""
+
+
+def test_a_chain_of_rewriting_records_is_checked_from_its_base(tmp_path):
+    report = run(tmp_path, _manifest_proof("bay"), MANIFEST)
+    assert report.verdict == ACCEPTED, [(s.name, s.outcome, s.message) for s in report.steps]
+    assert "through its rewriting records" in step(report, "c1").message
+    assert "covered by the check of `c1` from `manifest`" in step(report, "c1/1").message
+
+
+def test_a_rewrite_by_an_equation_the_chain_does_not_cite_is_not_accepted(tmp_path):
+    # Attack: the first crate rewritten to the yard needs `unrelated`, which
+    # no record of the chain cites.
+    proof = _manifest_proof("bay").replace("held(alias(k0)", "held(yard")
+    report = run(tmp_path, proof, MANIFEST)
+    assert report.verdict != ACCEPTED
+    assert step(report, "c1").outcome in (FAILED, REFUTED, UNPROVEN)
