@@ -54,6 +54,7 @@ FAST = (
     "maintenance_schedule_dnf",
     "plant_alarm_distribution",
     "plant_startup_checklist",
+    "ring_minus_one_squared",
 )
 
 MUTANTS = sorted(CORPUS.glob("*/mutant_*.p"))
