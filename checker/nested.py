@@ -3,11 +3,16 @@
 A prover may write ``inference(r, [...], [inference(s, [...], [a, b]), c])``:
 the inner step's conclusion is never stated.  For clause steps assay
 computes it: each nested step gets the candidate conclusions of single
-kernel-replayed inferences from its parents, and the first combination
-with which the outer step checks settles them, each nested step then
-reported as a step of its own.  When no combination works (or formulas are
-involved), the outer step is checked directly from the named statements
-its nested records rest on, which shows the same claim as a coarser step.
+kernel-replayed inferences from its parents (for a rewriting record, the
+rewrites of its first parent computed directly, likely ones first), and
+the first combination with which the outer step checks settles them, each
+nested step then reported as a step of its own.  The combinations are
+first tried with cheap bounds and no counter-model searches (a guess that
+does not fit can only be wrong, and that says nothing about the outer
+step), then a few with the full bounds.  When no combination works (or
+formulas are involved), the outer step is checked directly from the named
+statements its nested records rest on, which shows the same claim as a
+coarser step; only that check may refute it.
 """
 
 from __future__ import annotations
@@ -21,6 +26,7 @@ from checker.kernel.clauses import Clause
 from checker.kernel.formulas import negation
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
+from checker.search.demodulation import demodulants, describe_rewriting, is_rewriting
 from checker.search.evidence import candidates, describe
 from checker.search.findings import note_nested
 from checker.search.saturation import premise_references
@@ -29,6 +35,8 @@ from formats.derivation import Parent, Statement
 
 CANDIDATES_PER_STEP = 12
 COMBINATIONS = 64
+FULL_COMBINATIONS = 4
+"""combinations tried with the full bounds after the cheap pass"""
 
 CheckStep = Callable[[Step, Sequence[Statement | None]], StepResult]
 
@@ -46,11 +54,16 @@ class Option:
 
 
 def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str, object]]:
-    """Distinct conclusions of single kernel-replayed inferences from
-    ``premises`` (with their evidence), those that use every premise first."""
+    """Distinct conclusions of kernel-replayed inferences from ``premises``
+    (with their evidence): for a rewriting record its computed rewrites
+    first, then single inferences, those that use every premise first."""
     using_all: list[tuple[Clause, str, object]] = []
     others: list[tuple[Clause, str, object]] = []
     seen: set[frozenset] = set()
+    if is_rewriting(rule):
+        for computed, evidence in demodulants(premises):
+            seen.add(computed.literal_set)
+            using_all.append((computed, describe_rewriting(evidence), evidence))
     for attempt in itertools.islice(candidates(premises, rule), 20 * CANDIDATES_PER_STEP):
         if attempt.computed.literal_set in seen:
             continue
@@ -59,6 +72,19 @@ def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str, o
         target = using_all if used == set(range(len(premises))) else others
         target.append((attempt.computed, describe(premises, attempt.evidence), attempt.evidence))
     return (using_all + others)[:CANDIDATES_PER_STEP]
+
+
+def _round_robin(per_choice: list[list[Option]]) -> list[Option]:
+    """Distinct options, the likeliest of each choice of premises before
+    the second likeliest of any, up to the bound per step."""
+    gathered: dict[Clause, Option] = {}
+    for rank in itertools.count():
+        row = [found[rank] for found in per_choice if rank < len(found)]
+        if not row or len(gathered) >= CANDIDATES_PER_STEP:
+            break
+        for option in row:
+            gathered.setdefault(option.content, option)
+    return list(gathered.values())[:CANDIDATES_PER_STEP]
 
 
 def _premise_choices(step: Step, statements: dict[str, Statement], options: dict[str, list[Option]]):
@@ -120,8 +146,11 @@ def check_with_nested(
     nested: Sequence[Step],
     statements: dict[str, Statement],
     check_step: CheckStep,
+    cheap_step: CheckStep | None = None,
 ) -> list[StepResult]:
-    """Results for the nested steps (in order) and then the outer step."""
+    """Results for the nested steps (in order) and then the outer step.
+    ``cheap_step`` checks a step with cheap bounds and no counter-model
+    searches; the combinations of options are tried with it first."""
     assert outer.statement is not None
     negations, failure = _negations_of_conjectures(outer, nested, statements, check_step)
     if failure is not None:
@@ -136,32 +165,102 @@ def check_with_nested(
         if not nested:
             note_nested([_named(outer)])
             return [*settled, check_step(outer, [statements.get(name) for name in outer.parents])]
-        return [*settled, *check_with_nested(outer, nested, statements, check_step)]
+        return [*settled, *check_with_nested(outer, nested, statements, check_step, cheap_step)]
     options: dict[str, list[Option]] = {}
     for step in nested:  # parents first, as planned
-        gathered: dict[Clause, Option] = {}
+        per_choice: list[list[Option]] = []
         for choice in _premise_choices(step, statements, options):
             premises = [content for content, _ in choice]
             if not all(isinstance(p, Clause) for p in premises):
                 continue
             picked = tuple((name, option) for name, (_, option) in zip(step.parents, choice) if option is not None)
-            for content, how, evidence in _conclusions(premises, step.inference.rule):
-                gathered.setdefault(content, Option(content, how, picked, evidence))
-        options[step.name] = list(gathered.values())[:CANDIDATES_PER_STEP]
+            per_choice.append([Option(content, how, picked, evidence)
+                               for content, how, evidence in _conclusions(premises, step.inference.rule)])
+        options[step.name] = _round_robin(per_choice)
 
     by_name = {step.name: step for step in nested}
-    for choice in _premise_choices(outer, statements, options):
-        parents = [
-            _stand_in(by_name[name], content) if option is not None else statements[name]
-            for name, (content, option) in zip(outer.parents, choice)
-        ]
-        result = check_step(outer, parents)
-        if result.outcome == RECONSTRUCTED:
-            picked = {name: option for name, (_, option) in zip(outer.parents, choice) if option is not None}
-            results = _settled(nested, picked)
-            note_nested([*(_stated(step, picked[step.name]) for step in nested), _named(outer)])
-            return [*results, result]
+    choices = list(_premise_choices(outer, statements, options))
+    passes = [(check_step, choices[:FULL_COMBINATIONS])]
+    if cheap_step is not None:
+        passes.insert(0, (cheap_step, choices))
+    for check, tried in passes:
+        for choice in tried:
+            parents = [
+                _stand_in(by_name[name], content) if option is not None else statements[name]
+                for name, (content, option) in zip(outer.parents, choice)
+            ]
+            # Only a reconstruction is used: a guessed parent that does not
+            # fit says nothing about the step as the derivation states it.
+            result = check(outer, parents)
+            if result.outcome == RECONSTRUCTED:
+                picked = {name: option for name, (_, option) in zip(outer.parents, choice) if option is not None}
+                results = _settled(nested, picked)
+                note_nested([*(_stated(step, picked[step.name]) for step in nested), _named(outer)])
+                return [*results, result]
+        bases = len(tried) if check is cheap_step else FULL_COMBINATIONS
+        through = _through_rewrites(outer, nested, statements, options, check, bases)
+        if through is not None:
+            return through
     return _coarse(outer, nested, statements, check_step, options)
+
+
+def _through_rewrites(
+    outer: Step,
+    nested: Sequence[Step],
+    statements: dict[str, Statement],
+    options: dict[str, list[Option]],
+    check: CheckStep,
+    count: int,
+) -> list[StepResult] | None:
+    """A chain of rewriting records (``rw(rw(rw(B, e1), e2), e3)``) checked
+    as one: the outer step from each option of its base record ``B`` and
+    all the equations the chain cites, so that a rewrite the options of an
+    intermediate record missed (an equation used in an order of the
+    prover's own) is still found.  The records in between are covered by
+    that check; their conclusions are not used.  None when the outer step
+    is no such chain or none of the first ``count`` options of the base
+    lets it follow."""
+    by_name = {step.name: step for step in nested}
+    skipped: list[Step] = []
+    record, equations = outer, []
+    while is_rewriting(record.inference.rule) and record.parents:
+        equations = [*record.parents[1:], *equations]
+        if record.parents[0] not in by_name:
+            base = record.parents[0]
+            break
+        record = by_name[record.parents[0]]
+        if not is_rewriting(record.inference.rule):
+            base = record.name
+            break
+        skipped.append(record)
+    else:
+        return None
+    cited = list(dict.fromkeys(equations))
+    if not skipped or base in cited or any(name in by_name or name not in statements for name in cited):
+        return None
+    flattened = Step(outer.name, outer.statement, outer.inference, (base, *cited), (None,) * (1 + len(cited)),
+                     outer.location)
+    written = [statements[name] for name in cited]
+    bases = [(_stand_in(by_name[base], o.content), o) for o in options.get(base, [])] if base in by_name else [
+        (statements[base], None)] if base in statements else []
+    for parent, option in bases[:count]:
+        result = check(flattened, [parent, *written])
+        if result.outcome != RECONSTRUCTED:
+            continue
+        picked = {} if option is None else {base: option}
+        rest = [step for step in nested if step not in skipped]
+        results = _settled(rest, picked)
+        covered = [
+            StepResult(step.name, RECONSTRUCTED, step.inference.rule,
+                       f"conclusion not stated; covered by the check of `{outer.name}` from `{base}` and the "
+                       f"equations the rewriting records cite", step.location)
+            for step in skipped
+        ]
+        note_nested([*(_stated(step, picked[step.name]) for step in rest), _named(flattened)])
+        by_order = {result.name: result for result in (*results, *covered)}
+        message = f"{result.message} (checked from {', '.join(flattened.parents)}, through its rewriting records)"
+        return [*(by_order[step.name] for step in nested), replace(result, message=message)]
+    return None
 
 
 def _named(step: Step) -> Statement:

@@ -12,6 +12,7 @@ import os
 import traceback
 from collections import Counter
 from collections.abc import Sequence
+from dataclasses import replace
 
 from checker.assumptions import check_branch_step, trace_branches
 from checker.certified_steps import checked_with_findings, shared_answers
@@ -192,6 +193,12 @@ def _check(
     def check_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
+    cheap_context = replace(context, limits=limits.cheap())
+
+    def cheap_step(step, parents):
+        return check_branch_step(step, parents, branches, statements, limits) or check_inference(
+            step, parents, cheap_context)
+
     def results_for(step) -> list[StepResult]:
         """The results a stated step contributes (its searches recorded, or
         answered from an elaborated certificate), then any duplicate of its name."""
@@ -203,7 +210,7 @@ def _check(
         inner = nested.get(step.name, [])
         found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
         if not found and inner:
-            found = check_with_nested(step, inner, statements, check_step)
+            found = check_with_nested(step, inner, statements, check_step, cheap_step)
         elif not found and step.is_leaf:
             found = [check_branch_step(step, [], branches, statements, limits)
                      or check_leaf(step, problem, limits, context.symbols)]

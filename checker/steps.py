@@ -153,7 +153,7 @@ def check_from_premises(step: Step, parents: Sequence[Statement], context: StepC
                 step, FAILED, found.closest.message,
                 ("reason: wrong_bindings", premise_names(step), *closest_lines(found.closest)),
             )
-        model = find_countermodel(premises, claimed)
+        model = find_countermodel(premises, claimed, context.limits.countermodel_domain)
         if model is not None and confirm_countermodel(model, premises, claimed) is None:
             return step_result(
                 step, REFUTED, "counter-model: the premises are true and the claimed clause false",

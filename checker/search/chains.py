@@ -88,7 +88,7 @@ def _deletions(premises: Sequence[Clause], clause: Clause, index: int, nodes: in
     return found
 
 
-def _rewrites(premises: Sequence[Clause], clause: Clause, index: int) -> list[PrimitiveEvidence]:
+def rewrites(premises: Sequence[Clause], clause: Clause, index: int) -> list[PrimitiveEvidence]:
     """Every one-step rewrite of ``clause`` by a unit equation among the
     premises, either way round, at a non-variable position (matching only:
     the clause itself is not instantiated)."""
@@ -178,7 +178,7 @@ def find_chain(
                 return Chain(steps), theta
         available = [*premises, *derived]
         index = _index(premises, steps, premise)
-        for rewrite in _rewrites(premises, clause, index):
+        for rewrite in rewrites(premises, clause, index):
             result = replay(available, rewrite)
             if isinstance(result, Clause):
                 push(result, (*steps, rewrite), (*derived, result), premise)

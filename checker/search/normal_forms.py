@@ -90,7 +90,7 @@ class _Undo:
     bindings: Substitution
 
 
-def _normalise(premises, rules, clause: Clause, start: int, limit: int):
+def normalise(premises, rules, clause: Clause, start: int, limit: int):
     """Rewrite to normal form from chain index ``start``: the steps, the
     clauses they derive and the normal form, or None past ``limit`` steps."""
     available = list(premises)
@@ -134,7 +134,7 @@ def find_normal_form_chain(
     else:
         return None
     for start, premise in enumerate(premises):
-        forward = _normalise(premises, rules, premise, start, limit)
+        forward = normalise(premises, rules, premise, start, limit)
         if forward is None:
             continue
         steps, derived, normal = forward

@@ -78,11 +78,30 @@ class SearchLimits:
     searches (0: no screen)"""
     screen_ground_clauses: int = 20000
     """ground clauses per domain size the screen may build"""
+    countermodel_domain: int = 4
+    """largest domain of the counter-model search on a clause step for
+    which no evidence was found (0: none, the step is then unproven)"""
 
     def scaled(self, factor: float) -> SearchLimits:
         """Every bound multiplied by ``factor`` (at least 1 each)."""
         return SearchLimits(
             **{name: max(1, int(getattr(self, name) * factor)) for name in self.__dataclass_fields__}
+        )
+
+
+    def cheap(self) -> SearchLimits:
+        """Bounds for a first look at a step that is likely to hold (the
+        options tried for an unstated nested conclusion): the single
+        inference and a short chain, a small refutation, and no
+        counter-model searches, which can only say that a guess was wrong."""
+        return replace(
+            self,
+            rewrite_steps=min(self.rewrite_steps, 60),
+            chain_seeds=min(self.chain_seeds, 2),
+            saturation_clauses=min(self.saturation_clauses, 60),
+            saturation_given=min(self.saturation_given, 8),
+            screen_domain=0,
+            countermodel_domain=0,
         )
 
 

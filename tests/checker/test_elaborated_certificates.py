@@ -29,7 +29,7 @@ FAST_CORPUS = (
     "boolean_algebra_absorption", "boolean_algebra_idempotence", "group_commuting_inverse",
     "group_double_inverse", "group_inverse_of_product", "group_right_cancellation", "group_right_identity",
     "group_right_inverse", "group_squares_commute", "lattice_idempotence", "lattice_order_duality",
-    "plant_startup_checklist",
+    "plant_startup_checklist", "boolean_algebra_de_morgan", "boolean_ring_characteristic_two",
 )
 
 

@@ -9,8 +9,9 @@ documentation: parents are names of annotated formulas, in the derivation
 or in the problem).  Scenarios (cold stores, loading bays) are invented.
 """
 
-from checker.outcomes import ACCEPTED, FAILED, RECONSTRUCTED, REFUTED
+from checker.outcomes import ACCEPTED, FAILED, RECONSTRUCTED, REFUTED, UNPROVEN
 from checker.run import check
+from checker.search.reconstruct import SearchLimits
 
 STORES = """
 fof(every_store_has_probe, axiom, ! [S] : (store(S) => ? [P] : (probe(P) & fitted(P, S)))).
@@ -144,3 +145,116 @@ def test_a_derived_statement_of_the_problem_file_cannot_be_cited(tmp_path):
     problem = STORES + "fof(bogus, plain, $false, inference(made_up, [status(thm)], [store7])).\n"
     report = run(tmp_path, "cnf(c1, plain, $false, inference(copy, [status(thm)], [bogus])).\n", problem)
     assert report.verdict != ACCEPTED
+
+
+# Rewriting records nested three deep, their conclusions never stated:
+# each is computed by rewriting its first parent with the cited unit
+# equation (an invented parcel-forwarding scenario; idempotent forwarding).
+FORWARDING = """
+cnf(idem, axiom, fwd(fwd(X)) = fwd(X)).
+cnf(dock_to_bay, axiom, fwd(dock) = bay).
+cnf(crate_at, axiom, at(crate, fwd(fwd(fwd(dock))))).
+fof(goal, conjecture, at(crate, bay)).
+"""
+
+NESTED_REWRITES = """
+fof(n, negated_conjecture, ~ at(crate, bay), inference(assume_negation, [status(cth)], [goal])).
+cnf(c1, plain, at(crate, CLAIM),
+    inference(rw, [status(thm)], [inference(rw, [status(thm)], [inference(rw, [status(thm)],
+      [crate_at, idem]), idem]), dock_to_bay])).
+cnf(c2, plain, $false, inference(resolve, [status(thm)], [c1, n])).
+"""
+
+
+def test_nested_rewriting_records_are_computed_by_rewriting(tmp_path):
+    report = run(tmp_path, NESTED_REWRITES.replace("CLAIM", "bay"), FORWARDING)
+    assert report.verdict == ACCEPTED, [(s.name, s.outcome, s.message) for s in report.steps]
+    nested = [s for s in report.steps if s.name not in {"n", "c1", "c2", "idem", "dock_to_bay", "crate_at", "goal"}]
+    assert len(nested) == 2
+    assert all(s.outcome == RECONSTRUCTED and "computed" in s.message for s in nested)
+    # The innermost record rewrote once (outermost redex), the next once more.
+    assert any("at(crate,fwd(fwd(dock)))" in s.message.replace(" ", "") for s in nested)
+    assert any("at(crate,fwd(dock))" in s.message.replace(" ", "") for s in nested)
+
+
+def test_a_wrong_claim_under_nested_rewriting_records_is_refuted_at_the_outer_step(tmp_path):
+    # at(crate, dock) does not follow: dock and bay may differ.
+    report = run(tmp_path, NESTED_REWRITES.replace("CLAIM", "dock"), FORWARDING)
+    assert report.verdict != ACCEPTED
+    assert step(report, "c1").outcome == REFUTED
+    assert "reason: countermodel" in step(report, "c1").details
+
+
+def test_a_record_named_rewriting_that_resolves_is_still_checked(tmp_path):
+    # The rule name only orders the guesses: the last step, a resolution
+    # written as `rw`, is found among the other single inferences once its
+    # nested record is computed by rewriting (right to left); nothing is
+    # refuted.
+    proof = """
+fof(n, negated_conjecture, ~ at(crate, bay), inference(assume_negation, [status(cth)], [goal])).
+cnf(c1, plain, ~ at(crate, fwd(dock)),
+    inference(rw, [status(thm)], [inference(rw, [status(thm)], [n, dock_to_bay]), dock_to_bay])).
+cnf(c2, plain, ~ at(crate, fwd(fwd(dock))), inference(rw, [status(thm)], [c1, idem])).
+cnf(c3, plain, $false, inference(rw, [status(thm)], [inference(rw, [status(thm)], [c2, idem]), crate_at])).
+"""
+    report = run(tmp_path, proof, FORWARDING)
+    assert report.verdict == ACCEPTED, [(s.name, s.outcome, s.message) for s in report.steps]
+    assert not any(s.outcome == REFUTED for s in report.steps)
+    assert "computed `~at(crate,fwd(fwd(fwd(dock))))`" in step(report, "c3/1").message
+    assert "resolution" in step(report, "c3").message
+
+
+def test_cheap_bounds_search_no_counter_model(tmp_path):
+    # The bounds the guesses for unstated conclusions are first tried with:
+    # a step that does not hold is left unproven there (a guess that does
+    # not fit says nothing about the step); with the full bounds it is refuted.
+    proof = "cnf(c1, plain, at(crate, dock), inference(rw, [status(thm)], [crate_at, dock_to_bay])).\n"
+    (tmp_path / "proof.p").write_text(proof)
+    (tmp_path / "problem.p").write_text(FORWARDING)
+    cheap = SearchLimits().cheap()
+    assert (cheap.screen_domain, cheap.countermodel_domain) == (0, 0)
+    assert cheap.saturation_given < SearchLimits().saturation_given
+    full = check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"))
+    quick = check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"), limits=cheap)
+    assert step(full, "c1").outcome == REFUTED
+    assert step(quick, "c1").outcome == UNPROVEN
+
+
+# Fourteen crates, each at the dock's alias; the prover's first rewrite is
+# at the last crate, beyond the guesses kept for a record, so the chain of
+# rewriting records is checked as one from its base and cited equations.
+MANIFEST_ARGS = ", ".join(f"alias(k{i})" for i in range(14))
+MANIFEST = f"""
+cnf(alias_is_dock, axiom, alias(X) = dock(X)).
+cnf(dock_is_bay, axiom, dock(k13) = bay).
+cnf(unrelated, axiom, dock(k0) = yard).
+cnf(manifest, axiom, held({MANIFEST_ARGS})).
+fof(goal, conjecture, held({MANIFEST_ARGS.replace("alias(k13)", "bay")})).
+"""
+
+
+def _manifest_proof(claim_last: str) -> str:
+    args = ", ".join([*(f"alias(k{i})" for i in range(13)), claim_last])
+    return f"""
+cnf(c1, plain, held({args}),
+    inference(rw, [status(thm)], [inference(rw, [status(thm)], [manifest, alias_is_dock]), dock_is_bay])).
+fof(n, negated_conjecture, ~ held({MANIFEST_ARGS.replace("alias(k13)", "bay")}),
+    inference(assume_negation, [status(cth)], [goal])).
+cnf(c2, plain, $false, inference(resolve, [status(thm)], [c1, n])).
+"""
+
+
+def test_a_chain_of_rewriting_records_is_checked_from_its_base(tmp_path):
+    report = run(tmp_path, _manifest_proof("bay"), MANIFEST)
+    assert report.verdict == ACCEPTED, [(s.name, s.outcome, s.message) for s in report.steps]
+    assert "through its rewriting records" in step(report, "c1").message
+    assert "covered by the check of `c1` from `manifest`" in step(report, "c1/1").message
+
+
+def test_a_rewrite_by_an_equation_the_chain_does_not_cite_is_not_accepted(tmp_path):
+    # Attack: the first crate rewritten to the yard needs `unrelated`, which
+    # no record of the chain cites.
+    proof = _manifest_proof("bay").replace("held(alias(k0)", "held(yard")
+    report = run(tmp_path, proof, MANIFEST)
+    assert report.verdict != ACCEPTED
+    assert step(report, "c1").outcome in (FAILED, REFUTED, UNPROVEN)

@@ -34,13 +34,18 @@ FAST = (
     "access_policy_nested_quantifiers",
     "boolean_algebra_absorption",
     "boolean_algebra_complement_unique",
+    "boolean_algebra_de_morgan",
     "boolean_algebra_idempotence",
+    "boolean_algebra_involution",
+    "boolean_ring_characteristic_two",
+    "boolean_ring_commutative",
     "group_commuting_inverse",
     "group_double_inverse",
     "group_inverse_of_product",
     "group_right_cancellation",
     "group_right_identity",
     "group_right_inverse",
+    "group_square_of_product",
     "group_squares_commute",
     "interlock_equivalences",
     "lattice_idempotence",
@@ -49,6 +54,7 @@ FAST = (
     "maintenance_schedule_dnf",
     "plant_alarm_distribution",
     "plant_startup_checklist",
+    "ring_minus_one_squared",
 )
 
 MUTANTS = sorted(CORPUS.glob("*/mutant_*.p"))
