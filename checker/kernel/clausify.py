@@ -117,7 +117,7 @@ def _is_literal(formula: Formula) -> bool:
     return formula.connective in (ATOM, TRUE, FALSE)
 
 
-def _operands(formula: Formula) -> list[Formula]:
+def chain_operands(formula: Formula) -> list[Formula]:
     """The operands of a chain of one connective, ``a & (b & c)`` giving
     ``[a, b, c]``, so that long chains are one step and not a deep nest."""
     found: list[Formula] = []
@@ -251,7 +251,7 @@ class _Clausifier:
                         mapping[bound] = application(name, arguments)
                 tasks.append((current.arguments[0], positive, Substitution(mapping), universals))
             else:
-                operands = _operands(current)
+                operands = chain_operands(current)
                 tasks.append(((connective == AND) == positive, len(operands)))
                 tasks.extend((operand, positive, substitution, universals) for operand in reversed(operands))
         return results[0] + definition_clauses

@@ -16,6 +16,7 @@ do not mention its variable.
 
 from __future__ import annotations
 
+from checker.kernel.clausify import chain_operands
 from checker.kernel.formulas import (
     AND,
     ATOM,
@@ -42,18 +43,6 @@ DEPTH_LIMIT = 200
 _DUAL = {AND: OR, OR: AND, FORALL: EXISTS, EXISTS: FORALL}
 
 
-def _operands(formula: Formula) -> list[Formula]:
-    found: list[Formula] = []
-    stack = [formula]
-    while stack:
-        current = stack.pop()
-        if current.connective == formula.connective:
-            stack.extend(reversed(current.arguments))
-        else:
-            found.append(current)
-    return found
-
-
 def _joined(connective: str, parts: list[Formula]) -> Formula:
     combined = parts[0]
     for part in parts[1:]:
@@ -67,7 +56,7 @@ def _pushed(quantifier: str, bound: Term, body: Formula, depth: int) -> Formula:
         return body
     if depth > DEPTH_LIMIT or body.connective not in (AND, OR):
         return quantified(quantifier, (bound,), body)
-    operands = _operands(body)
+    operands = chain_operands(body)
     if (quantifier, body.connective) in ((FORALL, AND), (EXISTS, OR)):
         return _joined(body.connective, [_pushed(quantifier, bound, part, depth + 1) for part in operands])
     mentioning = [part for part in operands if bound in free_variables(part)]
@@ -92,7 +81,7 @@ def miniscoped(formula: Formula, positive: bool = True, depth: int = 0) -> Formu
     if connective == NOT:
         return miniscoped(formula.arguments[0], not positive, depth + 1)
     if connective in (AND, OR):
-        parts = [miniscoped(part, positive, depth + 1) for part in _operands(formula)]
+        parts = [miniscoped(part, positive, depth + 1) for part in chain_operands(formula)]
         return _joined(connective if positive else _DUAL[connective], parts)
     if connective in (IMPLIES, NOR, NAND):
         left, right = formula.arguments

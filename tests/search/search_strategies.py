@@ -6,9 +6,27 @@ variables) so that random pairs unify often enough to be interesting.
 
 from __future__ import annotations
 
+import sympy
 from hypothesis import strategies as st
+from sympy.logic.boolalg import And, Equivalent, Implies, Not, Or, Xor
 
 from checker.kernel.clauses import Clause, Literal
+from checker.kernel.formulas import (
+    AND,
+    ATOM,
+    FALSUM,
+    IFF,
+    IMPLIES,
+    NAND,
+    NOR,
+    OR,
+    VERUM,
+    XOR,
+    Formula,
+    atomic,
+    binary,
+    negation,
+)
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import Term, application, variable
 
@@ -97,3 +115,36 @@ def eq(left: Term, right: Term) -> Literal:
 
 def neq(left: Term, right: Term) -> Literal:
     return Literal(False, application("=", (left, right)))
+
+
+# Propositional formulas and their SymPy images (SymPy's propositional
+# logic is the reference library these tests compare against).
+
+SYMPY_CONNECTIVES = {
+    AND: And, OR: Or, IMPLIES: Implies, IFF: Equivalent, XOR: Xor,
+    NOR: lambda a, b: Not(Or(a, b)), NAND: lambda a, b: Not(And(a, b)),
+}
+
+
+def propositional_formulas(names: tuple[str, ...], connectives: tuple[str, ...], max_leaves: int):
+    """Random formulas over the propositions ``names``, ``$true`` and ``$false``."""
+    propositions = st.sampled_from([atomic(application(n, ())) for n in names] + [VERUM, FALSUM])
+    return st.recursive(
+        propositions,
+        lambda children: st.one_of(st.builds(negation, children),
+                                   st.builds(binary, st.sampled_from(connectives), children, children)),
+        max_leaves=max_leaves,
+    )
+
+
+def to_sympy(formula: Formula):
+    """The SymPy expression of a propositional formula."""
+    if formula.connective == ATOM:
+        return sympy.Symbol(formula.atom.symbol)
+    if formula is VERUM:
+        return sympy.true
+    if formula is FALSUM:
+        return sympy.false
+    if formula.connective == "~":
+        return Not(to_sympy(formula.arguments[0]))
+    return SYMPY_CONNECTIVES[formula.connective](*(to_sympy(a) for a in formula.arguments))

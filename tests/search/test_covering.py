@@ -13,14 +13,14 @@ from __future__ import annotations
 import sympy
 from hypothesis import given, settings
 from hypothesis import strategies as st
-from sympy.logic.boolalg import And, Equivalent, Implies, Not, Or, Xor, to_cnf
+from search_strategies import propositional_formulas, to_sympy
+from sympy.logic.boolalg import And, Not, Or, to_cnf
 from sympy.logic.inference import satisfiable
 
 from checker.kernel.clausify import clausify
 from checker.kernel.entailment import check_cover
 from checker.kernel.formulas import (
     AND,
-    ATOM,
     FALSUM,
     IFF,
     IMPLIES,
@@ -40,29 +40,7 @@ from formats.tptp import parse_formula
 
 NAMES = ("p", "q", "r", "s")
 CONNECTIVES = (AND, OR, IMPLIES, IFF, XOR, NOR, NAND)
-SYMPY = {
-    AND: And, OR: Or, IMPLIES: Implies, IFF: Equivalent, XOR: Xor,
-    NOR: lambda a, b: Not(Or(a, b)), NAND: lambda a, b: Not(And(a, b)),
-}
-propositions = st.sampled_from([atomic(application(n, ())) for n in NAMES] + [VERUM, FALSUM])
-formulas = st.recursive(
-    propositions,
-    lambda children: st.one_of(st.builds(negation, children),
-                               st.builds(binary, st.sampled_from(CONNECTIVES), children, children)),
-    max_leaves=6,
-)
-
-
-def to_sympy(formula: Formula):
-    if formula.connective == ATOM:
-        return sympy.Symbol(formula.atom.symbol)
-    if formula is VERUM:
-        return sympy.true
-    if formula is FALSUM:
-        return sympy.false
-    if formula.connective == "~":
-        return Not(to_sympy(formula.arguments[0]))
-    return SYMPY[formula.connective](*(to_sympy(a) for a in formula.arguments))
+formulas = propositional_formulas(NAMES, CONNECTIVES, max_leaves=6)
 
 
 def from_sympy(expression) -> Formula:

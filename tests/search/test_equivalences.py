@@ -6,42 +6,27 @@ scenario (invented) whose existential only becomes Skolemizable once its
 equivalence is written out.
 """
 
-import sympy
 from hypothesis import given, settings
-from hypothesis import strategies as st
-from sympy.logic.boolalg import And, Equivalent, Implies, Not, Or, Xor
+from search_strategies import propositional_formulas, to_sympy
+from sympy.logic.boolalg import Equivalent, Not
 from sympy.logic.inference import satisfiable
 
 from checker.kernel.formulas import (
-    AND, ATOM, EXISTS, FALSUM, IFF, IMPLIES, OR, VERUM, XOR, Formula, atomic, binary, negation,
+    AND,
+    EXISTS,
+    IFF,
+    IMPLIES,
+    OR,
+    XOR,
+    Formula,
     subformulas_with_polarity,
 )
-from checker.kernel.terms import application
 from checker.search.equivalences import has_equivalence, without_equivalences
 from formats.tptp import parse_tptp
 
 NAMES = ("p", "q", "r")
 CONNECTIVES = (AND, OR, IMPLIES, IFF, XOR)
-SYMPY = {AND: And, OR: Or, IMPLIES: Implies, IFF: Equivalent, XOR: Xor}
-propositions = st.sampled_from([atomic(application(n, ())) for n in NAMES] + [VERUM, FALSUM])
-formulas = st.recursive(
-    propositions,
-    lambda children: st.one_of(st.builds(negation, children),
-                               st.builds(binary, st.sampled_from(CONNECTIVES), children, children)),
-    max_leaves=8,
-)
-
-
-def to_sympy(formula: Formula):
-    if formula.connective == ATOM:
-        return sympy.Symbol(formula.atom.symbol)
-    if formula is VERUM:
-        return sympy.true
-    if formula is FALSUM:
-        return sympy.false
-    if formula.connective == "~":
-        return Not(to_sympy(formula.arguments[0]))
-    return SYMPY[formula.connective](*(to_sympy(a) for a in formula.arguments))
+formulas = propositional_formulas(NAMES, CONNECTIVES, max_leaves=8)
 
 
 def connectives(formula: Formula) -> set[str]:
