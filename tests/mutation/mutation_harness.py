@@ -30,6 +30,7 @@ from checker.kernel.formulas import NOT, make
 from checker.report import report_json
 from checker.run import check, read_document
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+from checker.tables import file_scope
 from formats.derivation import Inference, UnreadableInput
 from formats.tptp import read_tptp
 
@@ -80,7 +81,8 @@ def reading_once():
 
     run.read_tptp, harness.read_tptp = read_tptp_once, read_tptp_once
     try:
-        yield
+        with file_scope():  # cached documents outlive each check: keep their terms interned
+            yield
     finally:
         run.read_tptp, harness.read_tptp = original, original
 
@@ -118,7 +120,8 @@ def reusing_checked_steps():
 
     run.check_inference = check_inference_once
     try:
-        yield
+        with file_scope():  # cached results outlive each check: keep their terms interned
+            yield
     finally:
         run.check_inference = original
 
