@@ -6,8 +6,6 @@ import os
 
 from hypothesis import settings
 
-pytest_plugins = ("kernel_coverage",)  # 100% line and branch coverage of checker/kernel/ (tests/kernel_coverage.py)
-
 settings.register_profile("ci", derandomize=True, print_blob=True)
 if os.environ.get("CI"):
     settings.load_profile("ci")
