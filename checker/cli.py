@@ -154,7 +154,7 @@ def check_command(
     if record_path:
         try:
             with open(record_path, "w", encoding="utf-8") as out:
-                options = CheckOptions(problem, tuple(include_dirs), limits, jobs, require_problem)
+                options = CheckOptions(problem, tuple(include_dirs), limits, jobs, require_problem, bounds, time_limit)
                 json.dump(check_record(reports, limits, options), out, indent=2)
         except OSError as error:
             raise click.FileError(record_path, hint=error.strerror or str(error)) from None

@@ -4,7 +4,8 @@ and verifying it later.
 A record ties the verdict to the exact bytes that were checked (SHA-256 of
 the certificate, the problem and every file either includes) and to the
 kernel that checked them (SHA-256 of each of its source files), keeps the
-options the check ran with (problem, include directories, search bounds),
+options the check ran with (problem, include directories, search and input
+bounds, the whole-run time limit),
 and states plainly what a checked proof does and does not show.
 
 ``verify_record`` recomputes every hash and re-runs the check with the
@@ -24,10 +25,11 @@ from importlib.metadata import PackageNotFoundError, version
 from pathlib import Path
 
 from checker import kernel
-from checker.outcomes import Report
+from checker.outcomes import UNDECIDED, Report
 from checker.report import report_json
 from checker.run import check
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
+from formats.limits import DEFAULT_INPUT_LIMITS, InputLimits
 
 RECORD_KIND = "assay check record"
 RECORD_VERSION = 2
@@ -86,6 +88,10 @@ class CheckOptions:
     limits: SearchLimits = DEFAULT_LIMITS
     jobs: int = 1
     require_problem: bool = False
+    input_limits: InputLimits = DEFAULT_INPUT_LIMITS
+    time_limit: float | None = None
+    """seconds; kept to explain an ``undecided`` outcome, never re-applied
+    (wall-clock time is not reproducible)"""
 
 
 def check_record(reports: list[Report], limits: SearchLimits, options: CheckOptions | None = None) -> dict:
@@ -105,6 +111,8 @@ def check_record(reports: list[Report], limits: SearchLimits, options: CheckOpti
             "tptp_directory": os.environ.get("TPTP"),
             "require_problem": options.require_problem,
             "jobs": options.jobs,
+            "input_limits": asdict(options.input_limits),
+            "time_limit": options.time_limit,
         },
         "kernel_sources": kernel_sources(),
         "files": [
@@ -178,6 +186,17 @@ def _limits(recorded: dict, path: str) -> SearchLimits:
     return SearchLimits(**recorded)
 
 
+def _input_limits(options: dict, path: str) -> InputLimits:
+    """The recorded input bounds; a record written before they were kept
+    was read with the defaults."""
+    recorded = options.get("input_limits", {})
+    known = {field.name for field in fields(InputLimits)}
+    unknown = set(recorded) - known
+    if unknown or not all(isinstance(v, int) for v in recorded.values()):
+        raise UnreadableRecord(f"{path}: input limits this assay does not know: {', '.join(sorted(unknown))}")
+    return InputLimits(**recorded)
+
+
 def _outcomes(report: dict) -> dict[str, tuple[str, str | None]]:
     found: dict[str, tuple[str, str | None]] = {}
     for step in report.get("steps", []):
@@ -212,11 +231,14 @@ def compare_reports(certificate: str, recorded: dict, now: dict) -> list[str]:
 def verify_record(path: str, base_dir: str | None = None) -> RecordCheck:
     """Recompute every hash the record holds and re-run each check with the
     recorded options.  Relative paths are taken from ``base_dir`` (default:
-    the directory the check ran in)."""
+    the directory the check ran in).  A recorded time limit is not applied
+    again; a difference is then flagged as possibly due to it."""
     record = read_record(path)
     base = base_dir or record["working_directory"]
     options = record["options"]
     limits = _limits(record["search_limits"], path)
+    input_limits = _input_limits(options, path)
+    time_limit = options.get("time_limit")
 
     def here(name: str) -> str:
         return os.path.join(base, name)
@@ -249,10 +271,14 @@ def verify_record(path: str, base_dir: str | None = None) -> RecordCheck:
             limits,
             1,
             bool(options.get("require_problem")),
+            input_limits=input_limits,
         )
         now = report_json(report)
         verdicts.append(f"{entry['certificate']}: {now['verdict']}")
-        differences.extend(compare_reports(entry["certificate"], entry["report"], now))
+        found = compare_reports(entry["certificate"], entry["report"], now)
+        if found and time_limit is not None and entry["report"].get("verdict") == UNDECIDED:
+            found = [f"{line} (the recorded check ran under a time limit of {time_limit:g} s)" for line in found]
+        differences.extend(found)
         read_now = [os.path.normpath(f) for f in now["files_read"]]
         read_then = [os.path.normpath(here(read["path"])) for read in entry.get("files_read", [])]
         if read_now != read_then and not changed_files:

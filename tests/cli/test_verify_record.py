@@ -108,6 +108,47 @@ def test_the_record_keeps_the_options_it_was_checked_with(recorded):
     assert verify_record("record.json").exit_code == OUTCOME_DIFFERS
 
 
+def test_the_record_keeps_the_input_limits_and_reuses_them(recorded):
+    # The derivation has clauses of more than one literal: recorded with a
+    # one-literal bound, the re-check refuses the file as unreadable.
+    record = json.loads(Path("record.json").read_text())
+    assert record["options"]["input_limits"]["literals"] == 1000
+    record["options"]["input_limits"]["literals"] = 1
+    Path("record.json").write_text(json.dumps(record))
+    found = verify_record("record.json")
+    assert found.exit_code == OUTCOME_DIFFERS
+    assert found.verdicts == ("conveyor/proof.p: unreadable",)
+
+
+def test_an_input_limit_given_to_check_is_what_the_record_keeps(recorded):
+    code, output = _invoke("check", "conveyor/proof.p", "--problem", "conveyor/problem.p",
+                           "--input-limit", "depth=5000", "--time-limit", "300", "--record", "limited.json")
+    assert code == 0, output
+    options = json.loads(Path("limited.json").read_text())["options"]
+    assert options["input_limits"]["depth"] == 5000 and options["time_limit"] == 300
+    assert verify_record("limited.json").exit_code == RECORD_HOLDS
+
+
+def test_a_difference_after_a_timed_out_check_mentions_the_time_limit(recorded):
+    # A recorded `undecided` under --time-limit is re-checked without the
+    # limit (wall-clock time is not reproducible), and the difference says why.
+    record = json.loads(Path("record.json").read_text())
+    record["options"]["time_limit"] = 0.5
+    record["files"][0]["report"]["verdict"] = "undecided"
+    Path("record.json").write_text(json.dumps(record))
+    found = verify_record("record.json")
+    assert found.exit_code == OUTCOME_DIFFERS
+    assert "ran under a time limit of 0.5 s" in found.differences[0]
+
+
+def test_unknown_recorded_input_limits_make_the_record_unreadable(recorded):
+    record = json.loads(Path("record.json").read_text())
+    record["options"]["input_limits"] = {"pages": 3}
+    Path("record.json").write_text(json.dumps(record))
+    code, output = _invoke("verify-record", "record.json")
+    assert code == RECORD_UNREADABLE and "input limits this assay does not know: pages" in output
+
+
 def test_a_record_found_elsewhere_is_verified_from_a_base_directory(recorded, tmp_path_factory):
     moved = tmp_path_factory.mktemp("archive")
     shutil.copytree(recorded / "conveyor", moved / "conveyor")
