@@ -9,6 +9,7 @@ wrong sort stands (``% unreadable-at: LINE:COLUMN``).
 
 from __future__ import annotations
 
+import json
 import re
 from pathlib import Path
 
@@ -156,6 +157,27 @@ def test_a_derivation_cannot_declare_the_sorts_away(tmp_path):
         "tff(f3, plain, $false, inference(superposition, [status(thm)], [a1, a2])).\n",
     )
     assert check(proof, problem=problem).verdict != ACCEPTED
+
+
+def test_a_native_certificate_cannot_forge_the_sorts_away(tmp_path):
+    # The same attack in assay's own certificate (version 2): typed statements
+    # written as untyped fof with no `sorts` field.  The sorts come from the
+    # typed problem as read, so erasure stays refused.
+    problem = _write(tmp_path, "problem.p", SINGLE_VALVE)
+    records = [
+        {"assay_certificate": 2, "problem": "problem.p"},
+        {"name": "a1", "role": "axiom", "language": "fof", "formula": "! [X, Y] : X = Y",
+         "origin": {"kind": "file", "detail": ["problem.p", "one_valve"]}},
+        {"name": "a2", "role": "axiom", "language": "fof", "formula": "s1 != s2",
+         "origin": {"kind": "file", "detail": ["problem.p", "two_sensors"]}},
+        {"name": "f3", "role": "plain", "language": "fof", "formula": "$false",
+         "inference": {"rule": "superposition", "parents": ["a1", "a2"], "status": "thm"}},
+    ]
+    proof = _write(tmp_path, "proof.jsonl", "".join(json.dumps(record) + "\n" for record in records))
+    report = check(proof, problem=problem)
+    assert report.verdict != ACCEPTED
+    step = next(s for s in report.steps if s.name == "f3")
+    assert step.outcome == UNPROVEN and step.message.startswith("unsupported: equality over a sort")
 
 
 @pytest.mark.parametrize(
