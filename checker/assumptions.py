@@ -131,7 +131,7 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
             for branch in branches_of.get(step.parents[0], ()):
                 closers = [f for f in falses if branch in rests_on[f]]
                 if closers:
-                    extra = rests_on[step.parents[0]] | {branch}
+                    extra = rests_on.get(step.parents[0], frozenset()) | {branch}  # a dangling parent rests on nothing
                     closed[branch] = min(closers, key=lambda f, extra=extra: (len(rests_on[f] - extra), order[f]))
         if _is_assumption(step):
             assumptions[step.name] = Assumption(step.name, step.parents[0] if step.parents else None)

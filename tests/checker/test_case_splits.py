@@ -71,6 +71,22 @@ cnf(c4, plain, $false, inference(resolution, [status(thm)], [c3, busy])).
     assert "no branch of it was assumed" in failure.message
 
 
+def test_a_split_clause_that_was_never_stated_is_a_dangling_parent(tmp_path):
+    # Both sides of the split cite `c0`, which no statement defines (its
+    # statement was written under another step's name): a structural
+    # fault of each side, reported as such, never an error inside assay.
+    report = run(tmp_path, """
+cnf(c1, plain, loaded(X), inference(splitLeft, [status(thm)], [c0])).
+cnf(c2, plain, $false, inference(resolution, [status(thm)], [c1, nothing_loaded])).
+cnf(c3, plain, idle(Y), inference(splitRight, [status(thm)], [c0])).
+cnf(c4, plain, $false, inference(resolution, [status(thm)], [c3, busy])).
+""")
+    assert report.verdict == REJECTED
+    assert {(r.name, r.reason) for r in report.steps if r.reason == "dangling_parent"} == {
+        ("c1", "dangling_parent"), ("c3", "dangling_parent")}
+    assert report.first_failure.name == "c1"
+
+
 def test_a_branch_closed_under_an_outer_assumption_keeps_it_open(tmp_path):
     # The branch c2 of c1's clause is closed by a `$false` that also rests on
     # the outer assumption a0; the other side carries a0, so the final
