@@ -238,7 +238,7 @@ def _check_assumption(step: Step, parents: Sequence[Statement | None], branches:
         return step_result(step, UNPROVEN, "an assumed branch and its split clause must both be clauses")
     component = Clause(literal for literal in claimed.literals if literal in split.literal_set)
     extra = [literal for literal in claimed.literals if literal not in split.literal_set]
-    if not component.literals:
+    if extra and not component.literals:
         return step_result(
             step, FAILED,
             f"assumes {quote(claimed)}, which is not a component of `{parents[0].name}` ({quote(split)}): "
