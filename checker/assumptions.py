@@ -131,7 +131,7 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
             for branch in branches_of.get(step.parents[0], ()):
                 closers = [f for f in falses if branch in rests_on[f]]
                 if closers:
-                    extra = rests_on[step.parents[0]] | {branch}
+                    extra = rests_on.get(step.parents[0], frozenset()) | {branch}  # a dangling parent rests on nothing
                     closed[branch] = min(closers, key=lambda f, extra=extra: (len(rests_on[f] - extra), order[f]))
         if _is_assumption(step):
             assumptions[step.name] = Assumption(step.name, step.parents[0] if step.parents else None)
@@ -224,9 +224,11 @@ def check_branch_step(
 
 def _check_assumption(step: Step, parents: Sequence[Statement | None], branches: Branches) -> StepResult:
     """An assumption needs no justification (what rests on it carries it),
-    but a branch must be a component of its split clause sharing no
+    but a branch must contain a component of its split clause sharing no
     variable with the rest, or the other side of the split is not its
-    complement."""
+    complement.  Literals beyond the component weaken the branch: that is
+    safe, since closing the weaker branch refutes the component too (the
+    other side is checked from the negation of the branch as written)."""
     assumption = branches.assumptions[step.name]
     fate = f"first closed by `{assumption.closed_by}`" if assumption.closed_by else "never closed"
     if not parents:
@@ -234,16 +236,17 @@ def _check_assumption(step: Step, parents: Sequence[Statement | None], branches:
     claimed, split = step.statement.content, parents[0].content
     if not (isinstance(claimed, Clause) and isinstance(split, Clause)):
         return step_result(step, UNPROVEN, "an assumed branch and its split clause must both be clauses")
-    missing = [literal for literal in claimed.literals if literal not in split.literal_set]
-    if missing:
+    component = Clause(literal for literal in claimed.literals if literal in split.literal_set)
+    extra = [literal for literal in claimed.literals if literal not in split.literal_set]
+    if extra and not component.literals:
         return step_result(
             step, FAILED,
             f"assumes {quote(claimed)}, which is not a component of `{parents[0].name}` ({quote(split)}): "
-            f"{quote(missing[0])} is not one of its literals",
+            f"{quote(extra[0])} is not one of its literals, and none of its literals is",
             ("reason: not_a_component",),
         )
     rest = Clause(literal for literal in split.literals if literal not in claimed.literal_set)
-    shared = sorted(claimed.variables() & rest.variables(), key=render)
+    shared = sorted(component.variables() & rest.variables(), key=render)
     if shared:
         return step_result(
             step, FAILED,
@@ -251,6 +254,10 @@ def _check_assumption(step: Step, parents: Sequence[Statement | None], branches:
             f"`{parents[0].name}` ({quote(rest)}): a branch must be a variable-disjoint component",
             ("reason: component_shares_variable",),
         )
+    if extra:
+        weakened = ", ".join(quote(literal) for literal in extra)
+        return step_result(step, ASSUMED, f"assumption: the variable-disjoint component {quote(component)} of "
+                                          f"`{parents[0].name}`, weakened by {weakened}; {fate}")
     return step_result(step, ASSUMED, f"assumption: a variable-disjoint component of `{parents[0].name}`; {fate}")
 
 

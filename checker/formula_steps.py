@@ -13,6 +13,7 @@ premises plus the kernel-built Skolem axioms.
 from __future__ import annotations
 
 from collections.abc import Sequence
+from dataclasses import replace
 
 from checker.freshness import SymbolTable, describe_symbol, new_symbols
 from checker.kernel.clauses import Clause
@@ -209,10 +210,19 @@ def _introduction(
     peers: Sequence[str],
     table: SymbolTable,
     limits: SearchLimits,
+    used: frozenset = frozenset(),
 ) -> StepResult:
     """The conjunction of ``claims`` as an introduction.  Which quantifier
     each symbol witnesses is searched for; a counter-model refutes the step
-    only if it refutes every pairing there is."""
+    only if it refutes every pairing there is.
+
+    Symbols ``used`` are new to the premises but taken as ordinary symbols
+    of the claim, witnessing nothing.  When some new symbols are not fresh
+    (a clause weakened by a literal over a problem symbol) and the others
+    are, the step holds if it follows with the fresh ones as witnesses and
+    the rest as they are: that entailment is over every meaning of the
+    stale symbols, so nothing about them is assumed.  Otherwise the symbol
+    that is not fresh is the fault reported."""
     conclusion = as_formula(claims[0])
     for other in claims[1:]:
         conclusion = binary(AND, conclusion, as_formula(other))
@@ -228,12 +238,20 @@ def _introduction(
     if step.is_leaf:
         # An introduced leaf introduces only what the problem does not have.
         new = {s for s in new if s in table.leaf_introducers}
+    new -= used
     cited = f" and `{'`, `'.join(leaves)}`, which define{'s' if len(leaves) == 1 else ''} some of its symbols" if leaves else ""
     together = ""
     if len(claims) > 1:
         together = f" (with the {len(claims) - 1} earlier step{'s' if len(claims) > 2 else ''} introducing them)"
     not_fresh = table.freshness_failure(step.name, new, peers)
     if not_fresh:
+        stale = frozenset(s for s in new if table.freshness_failure(step.name, [s], peers))
+        if not used and not step.is_leaf and stale != new:
+            found = _introduction(step, premises, claims, raw_premises, peers, table, limits, stale)
+            if found.outcome == RECONSTRUCTED:
+                named = ", ".join(describe_symbol(s) for s in sorted(stale))
+                return replace(found, message=f"{found.message} ({named} used as in the problem or earlier steps, "
+                                              "witnessing nothing)")
         return step_result(step, FAILED, not_fresh, ("reason: not_fresh",))
     if not new:
         result = check_consequence(step, premises, conclusion, limits, what=f"follows from its premises{cited}{together}")

@@ -127,17 +127,34 @@ class SymbolTable:
         return None
 
 
-def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> SymbolTable:
+def build_symbol_table(
+    steps: Iterable[Step], problem: Document | None, unlinked: frozenset[str] = frozenset()
+) -> SymbolTable:
+    """The table of a planned derivation.  The ``unlinked`` leaves (shown
+    to be no statement of the problem) and the steps resting on them are
+    no occurrences of anything: such a leaf fails, so the derivation is
+    rejected at it whatever the other steps are, and what it says must not
+    make an earlier Skolem or defined symbol look non-fresh, which would
+    report the first failure away from its cause.  (They are still
+    introducers, and their own freshness is judged as any step's.)"""
     steps = list(steps)
     problem_symbols: dict[Symbol, tuple[str, Location]] = {}
     for statement in problem.statements if problem else ():
         for symbol in content_symbols(statement.content):
             problem_symbols.setdefault(symbol, (statement.name, statement.location))
-    step_symbols = {s.name: content_symbols(s.statement.content) for s in steps if s.statement is not None}
     children: dict[str, list[str]] = {}
     for s in steps:
         for parent in s.parents:
             children.setdefault(parent, []).append(s.name)
+    left_out = set(unlinked)
+    pending = list(unlinked)
+    while pending:
+        for child in children.get(pending.pop(), ()):
+            if child not in left_out:
+                left_out.add(child)
+                pending.append(child)
+    stated_symbols = {s.name: content_symbols(s.statement.content) for s in steps if s.statement is not None}
+    step_symbols = {name: found for name, found in stated_symbols.items() if name not in left_out}
     # What each step inherits from its parents: a stated step hands on its
     # own symbols, an unstated (nested) one what it inherited.  Steps come
     # parents first.
@@ -145,7 +162,7 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
     handed_on: dict[str, set[Symbol]] = {}
     for s in steps:
         inherited_by[s.name] = set().union(*(handed_on.get(p, set()) for p in s.parents))
-        handed_on[s.name] = step_symbols[s.name] if s.statement is not None else inherited_by[s.name]
+        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else inherited_by[s.name]
     introducers: dict[Symbol, list[str]] = {}
     leaf_introducers: dict[Symbol, str] = {}
     implicit_citations: dict[str, list[str]] = {}
@@ -178,7 +195,7 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)]),
         non_monotone_statements(problem.statements) if problem else {},
         {s.name: s for s in steps},
-        _polarities(problem, steps),
+        _polarities(problem, [s for s in steps if s.name not in left_out]),
     )
 
 

@@ -16,7 +16,7 @@ and a conjecture leaf and the problem's conjecture entail each other.
 
 from __future__ import annotations
 
-from collections.abc import Iterator
+from collections.abc import Iterable, Iterator
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -152,11 +152,40 @@ def check_leaf(step: Step, problem: Document | None, limits: SearchLimits, table
     other leaf may weaken an axiom but never state a conjecture."""
     statement = step.statement
     assert statement is not None
-    origin = statement.source if isinstance(statement.source, Origin) else Origin("unknown")
+    origin = _origin(statement)
     if origin.kind in ("theory", "introduced"):
         return check_introduced_leaf(step, origin, table, limits)
     if problem is None:
         return StepResult(step.name, ASSUMED, "leaf", "taken as given: no problem to check it against", step.location)
+    return _linked(step, origin, problem, limits)
+
+
+def unlinked_leaves(steps: Iterable[Step], problem: Document | None, limits: SearchLimits) -> dict[str, StepResult]:
+    """The failures of the leaves that cite the problem and do not link to
+    it (not in the problem, a conjecture stated as an axiom ...), by name,
+    checked before the rest: the derivation is rejected at each whatever
+    else holds, and the run reports exactly these results for them."""
+    if problem is None:
+        return {}
+    found = {}
+    for step in steps:
+        if step.is_leaf and step.statement is not None and _origin(step.statement).kind not in ("theory", "introduced"):
+            result = _linked(step, _origin(step.statement), problem, limits)
+            if result.outcome == FAILED:
+                found[step.name] = result
+    # These searches ran outside any step's recording (checker/search/findings.py):
+    # forget their cached answers, so that each leaf's own check asks again where it is recorded.
+    _entailment.cache_clear()
+    return found
+
+
+def _origin(statement: Statement) -> Origin:
+    return statement.source if isinstance(statement.source, Origin) else Origin("unknown")
+
+
+def _linked(step: Step, origin: Origin, problem: Document, limits: SearchLimits) -> StepResult:
+    """The leaf linked to the problem statement it cites (or one it states)."""
+    statement = step.statement
     cited = origin.detail[1] if origin.kind == "file" and len(origin.detail) > 1 and origin.detail[1] else statement.name
     inputs = _problem_inputs(problem)
     if statement.role == "conjecture":

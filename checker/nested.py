@@ -13,6 +13,13 @@ step), then a few with the full bounds.  When no combination works (or
 formulas are involved), the outer step is checked directly from the named
 statements its nested records rest on, which shows the same claim as a
 coarser step; only that check may refute it.
+
+Bindings a nested record states for a parent (``a:[bind(X, c)]``) are
+held as on a single inference: the record's candidate conclusions are
+computed from the stated instances, and the coarser checks (through
+rewriting records, from the named statements) take each cited statement
+as the instance its record states.  When the claim follows only without
+them, the record that states the bindings fails (``wrong_bindings``).
 """
 
 from __future__ import annotations
@@ -24,11 +31,13 @@ from dataclasses import dataclass, replace
 from checker.formula_steps import as_formula
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import negation
+from checker.kernel.substitution import Substitution
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
 from checker.search.demodulation import demodulants, describe_rewriting, is_rewriting
 from checker.search.evidence import candidates, describe
 from checker.search.findings import note_nested
+from checker.search.reconstruct import from_stated_instances
 from checker.search.saturation import premise_references
 from checker.statuses import weakest_status
 from formats.derivation import Parent, Statement
@@ -53,24 +62,31 @@ class Option:
     """the kernel-replayed inference that computed it"""
 
 
-def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str, object]]:
+def _conclusions(
+    premises: list[Clause], rule: str, stated: Sequence[Substitution | None] = ()
+) -> list[tuple[Clause, str, object]]:
     """Distinct conclusions of kernel-replayed inferences from ``premises``
     (with their evidence): for a rewriting record its computed rewrites
-    first, then single inferences, those that use every premise first."""
+    first, then single inferences, those that use every premise first.
+    A premise with ``stated`` bindings is used only as its stated instance
+    (the evidence still names the premise itself)."""
+    stated = (list(stated) + [None] * len(premises))[: len(premises)]
+    searched = [p if given is None else p.instance(given) for p, given in zip(premises, stated)]
     using_all: list[tuple[Clause, str, object]] = []
     others: list[tuple[Clause, str, object]] = []
     seen: set[frozenset] = set()
     if is_rewriting(rule):
-        for computed, evidence in demodulants(premises):
+        for computed, evidence in demodulants(searched):
             seen.add(computed.literal_set)
-            using_all.append((computed, describe_rewriting(evidence), evidence))
-    for attempt in itertools.islice(candidates(premises, rule), 20 * CANDIDATES_PER_STEP):
+            using_all.append((computed, describe_rewriting(evidence), from_stated_instances(evidence, premises, stated)))
+    for attempt in itertools.islice(candidates(searched, rule), 20 * CANDIDATES_PER_STEP):
         if attempt.computed.literal_set in seen:
             continue
         seen.add(attempt.computed.literal_set)
         used = set(premise_references(attempt.evidence))
         target = using_all if used == set(range(len(premises))) else others
-        target.append((attempt.computed, describe(premises, attempt.evidence), attempt.evidence))
+        evidence = from_stated_instances(attempt.evidence, premises, stated)
+        target.append((attempt.computed, describe(premises, evidence), evidence))
     return (using_all + others)[:CANDIDATES_PER_STEP]
 
 
@@ -175,7 +191,7 @@ def check_with_nested(
                 continue
             picked = tuple((name, option) for name, (_, option) in zip(step.parents, choice) if option is not None)
             per_choice.append([Option(content, how, picked, evidence)
-                               for content, how, evidence in _conclusions(premises, step.inference.rule)])
+                               for content, how, evidence in _conclusions(premises, step.inference.rule, step.bindings)])
         options[step.name] = _round_robin(per_choice)
 
     by_name = {step.name: step for step in nested}
@@ -224,25 +240,26 @@ def _through_rewrites(
     skipped: list[Step] = []
     record, equations = outer, []
     while is_rewriting(record.inference.rule) and record.parents:
-        equations = [*record.parents[1:], *equations]
+        equations = [*zip(record.parents[1:], record.bindings[1:]), *equations]
         if record.parents[0] not in by_name:
-            base = record.parents[0]
+            base, base_bindings = record.parents[0], record.bindings[0]
             break
         record = by_name[record.parents[0]]
         if not is_rewriting(record.inference.rule):
-            base = record.name
+            base, base_bindings = record.name, None
             break
         skipped.append(record)
     else:
         return None
-    cited = list(dict.fromkeys(equations))
-    if not skipped or base in cited or any(name in by_name or name not in statements for name in cited):
+    cited = list(dict.fromkeys(equations))  # (name, stated bindings): each instance once
+    names = [name for name, _ in cited]
+    if not skipped or base in names or any(name in by_name or name not in statements for name in names):
         return None
-    flattened = Step(outer.name, outer.statement, outer.inference, (base, *cited), (None,) * (1 + len(cited)),
+    flattened = Step(outer.name, outer.statement, outer.inference, (base, *names), (None,) * (1 + len(names)),
                      outer.location)
-    written = [statements[name] for name in cited]
+    written = [_as_stated(statements[name], bindings) for name, bindings in cited]
     bases = [(_stand_in(by_name[base], o.content), o) for o in options.get(base, [])] if base in by_name else [
-        (statements[base], None)] if base in statements else []
+        (_as_stated(statements[base], base_bindings), None)] if base in statements else []
     for parent, option in bases[:count]:
         result = check(flattened, [parent, *written])
         if result.outcome != RECONSTRUCTED:
@@ -305,22 +322,39 @@ def _coarse(
     """Check the outer step from the named statements under its nested
     records.  If that fails too, the fault is the outer step's: a nested
     step whose inference yields something is not blamed for it."""
-    names = {step.name for step in nested}
     by_name = {step.name: step for step in nested}
-    leaves: list[str] = []
-    stack = list(reversed(outer.parents))
+    # Each named statement under the records, as the instance its record
+    # states (once per distinct instance), with the record that cites it.
+    cited: dict[tuple[str, Substitution | None], str] = {}
+    stack = [(outer, name, bindings) for name, bindings in reversed(list(zip(outer.parents, outer.bindings)))]
     while stack:
-        name = stack.pop()
-        if name in names:
-            stack.extend(reversed(by_name[name].parents))
-        elif name not in leaves:
-            leaves.append(name)
+        record, name, bindings = stack.pop()
+        if name in by_name:
+            inner = by_name[name]
+            stack.extend((inner, parent, given) for parent, given in reversed(list(zip(inner.parents, inner.bindings))))
+        else:
+            cited.setdefault((name, bindings), record.name)
+    leaves = list(dict.fromkeys(name for name, _ in cited))
     # The flattened step claims what its weakest record claims: a
     # Skolemization nested under a `thm` record makes the whole an `esa` step.
     status = weakest_status(step.inference.status for step in (*nested, outer))
     inference = replace(outer.inference, status=status)
     flattened = Step(outer.name, outer.statement, inference, tuple(leaves), (None,) * len(leaves), outer.location)
-    result = check_step(flattened, [statements.get(name) for name in leaves])
+    bound = {(name, bindings): citer for (name, bindings), citer in cited.items() if bindings is not None}
+    if bound:
+        # Each cited statement only as the instance its record states.
+        instances = Step(outer.name, outer.statement, inference, tuple(name for name, _ in cited),
+                         (None,) * len(cited), outer.location)
+        result = check_step(instances, [_as_stated(statements.get(name), b) for name, b in cited])
+        if result.outcome not in (CHECKED, RECONSTRUCTED):
+            free = check_step(flattened, [statements.get(name) for name in leaves])
+            if free.outcome in (CHECKED, RECONSTRUCTED):
+                return _wrong_nested_bindings(outer, by_name, bound, result, leaves)
+            result = free  # not even without the bindings: the claim's own fault
+        else:
+            flattened = instances
+    else:
+        result = check_step(flattened, [statements.get(name) for name in leaves])
     covered = result.outcome == RECONSTRUCTED
     if covered:
         note_nested([_named(flattened)])
@@ -343,3 +377,41 @@ def _coarse(
         result.location, result.details,
     )
     return [*nested_results, result]
+
+
+def _as_stated(statement: Statement | None, bindings: Substitution | None) -> Statement | None:
+    """A cited clause as the instance its citation states (``a:[bind(X, t)]``)."""
+    if statement is None or bindings is None or not isinstance(statement.content, Clause):
+        return statement
+    return replace(statement, content=statement.content.instance(bindings))
+
+
+def _wrong_nested_bindings(
+    outer: Step,
+    by_name: dict[str, Step],
+    bound: dict[tuple[str, Substitution], str],
+    result: StepResult,
+    leaves: list[str],
+) -> list[StepResult]:
+    """The claim follows from the named statements (kernel-replayed) but
+    not from the instances the records state: the first record stating
+    bindings fails (``wrong_bindings``), and the outer step, shown from
+    the named statements, rests on it (``unfounded``).  When the outer step
+    states them itself, it fails."""
+    (name, bindings), citer = next(iter(bound.items()))
+    others = [f"`{c}` states {b} for `{n}`" for (n, b), c in list(bound.items())[1:]]
+    message = (
+        f"the bindings it states for `{name}` ({bindings}) are wrong: `{outer.name}` follows from "
+        f"{', '.join(leaves)} without them, but not from the instances its records state: {result.message}"
+    )
+    details = ("reason: wrong_bindings", *(f"also: {line}" for line in others),
+               *(d for d in result.details if not d.startswith("reason: ")))
+    if citer == outer.name:
+        return [StepResult(outer.name, FAILED, outer.inference.rule, message, outer.location, details)]
+    record = by_name[citer]
+    failure = StepResult(record.name, FAILED, record.inference.rule, message, record.location, details)
+    follows = StepResult(
+        outer.name, RECONSTRUCTED, outer.inference.rule,
+        f"follows from {', '.join(leaves)} only without the bindings `{record.name}` states", outer.location,
+    )
+    return [failure, follows]  # the other records are not settled, and not blamed

@@ -19,7 +19,7 @@ from checker.certified_steps import checked_with_findings, shared_answers
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
-from checker.leaves import check_leaf
+from checker.leaves import check_leaf, unlinked_leaves
 from checker.nested import check_with_nested
 from checker.notes import introduced_symbols, notes_on
 from checker.outcomes import (
@@ -182,7 +182,8 @@ def _check(
     document = with_cited_problem_statements(document, problem)
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
-    context = StepContext(limits, build_symbol_table(plan.steps, problem), conjectures)
+    unlinked = unlinked_leaves(plan.steps, problem, limits)
+    context = StepContext(limits, build_symbol_table(plan.steps, problem, frozenset(unlinked)), conjectures)
     statements: dict[str, Statement] = {}
     for statement in document.statements:
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
@@ -212,7 +213,7 @@ def _check(
         if not found and inner:
             found = check_with_nested(step, inner, statements, check_step, cheap_step)
         elif not found and step.is_leaf:
-            found = [check_branch_step(step, [], branches, statements, limits)
+            found = [unlinked.get(step.name) or check_branch_step(step, [], branches, statements, limits)
                      or check_leaf(step, problem, limits, context.symbols)]
         elif not found:
             found = [check_step(step, [statements.get(name) for name in step.parents])]

@@ -185,6 +185,18 @@ def stated_disagreement(
     return None
 
 
+def from_stated_instances(
+    evidence: PrimitiveEvidence | Chain, premises: Sequence[Clause], stated: Sequence[Substitution | None]
+) -> PrimitiveEvidence | Chain:
+    """Evidence computed on the stated instances of the premises, made to
+    use the premises themselves (it honours the stated bindings)."""
+    if not any(given is not None for given in stated):
+        return evidence
+    if isinstance(evidence, Chain):
+        return _prefixed(evidence, stated, len(premises), 0)
+    return with_premise_substitutions(evidence, _composed(stated, premises))
+
+
 def _composed(stated: Sequence[Substitution | None], premises: Sequence[Clause]):
     """For evidence found on the stated instances of the premises: each
     premise's substitution s becomes s after the stated one."""

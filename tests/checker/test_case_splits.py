@@ -71,6 +71,55 @@ cnf(c4, plain, $false, inference(resolution, [status(thm)], [c3, busy])).
     assert "no branch of it was assumed" in failure.message
 
 
+def test_a_split_clause_that_was_never_stated_is_a_dangling_parent(tmp_path):
+    # Both sides of the split cite `c0`, which no statement defines (its
+    # statement was written under another step's name): a structural
+    # fault of each side, reported as such, never an error inside assay.
+    report = run(tmp_path, """
+cnf(c1, plain, loaded(X), inference(splitLeft, [status(thm)], [c0])).
+cnf(c2, plain, $false, inference(resolution, [status(thm)], [c1, nothing_loaded])).
+cnf(c3, plain, idle(Y), inference(splitRight, [status(thm)], [c0])).
+cnf(c4, plain, $false, inference(resolution, [status(thm)], [c3, busy])).
+""")
+    assert report.verdict == REJECTED
+    assert {(r.name, r.reason) for r in report.steps if r.reason == "dangling_parent"} == {
+        ("c1", "dangling_parent"), ("c3", "dangling_parent")}
+    assert report.first_failure.name == "c1"
+
+
+def test_a_branch_weakened_by_an_extra_literal_is_assumed(tmp_path):
+    # `loaded(X) | idle(truck2)` is the component loaded(X) of shift with a
+    # literal added: closing it refutes the component too, and the other
+    # side is checked from the negation of the branch as written.
+    report = run(tmp_path, """
+cnf(c1, plain, loaded(X) | idle(truck2), inference(splitLeft, [status(thm)], [shift])).
+cnf(c2, plain, $false, inference(resolution, [status(thm)], [c1, nothing_loaded, busy])).
+cnf(c3, plain, idle(Y), inference(splitRight, [status(thm)], [shift])).
+cnf(c4, plain, $false, inference(resolution, [status(thm)], [c3, busy])).
+""")
+    assert report.verdict == ACCEPTED, report.first_failure
+    assumed = by_name(report, "c1")[0]
+    assert assumed.outcome == ASSUMED and "weakened by `idle(truck2)`" in assumed.message
+
+
+def test_a_weakened_branch_still_needs_a_variable_disjoint_component(tmp_path):
+    # The kept literal loaded(X) shares X with the rest of the split clause.
+    problem = "cnf(shift, axiom, loaded(X) | idle(X)).\ncnf(busy, axiom, ~idle(truck2)).\n"
+    report = run(tmp_path, """
+cnf(shift, axiom, loaded(X) | idle(X), file('problem.p', shift)).
+cnf(busy, axiom, ~idle(truck2), file('problem.p', busy)).
+cnf(c1, plain, loaded(X) | idle(truck2), inference(splitLeft, [status(thm)], [shift])).
+""", problem)
+    assert (report.first_failure.name, report.first_failure.reason) == ("c1", "component_shares_variable")
+
+
+def test_a_branch_with_no_literal_of_its_split_clause_is_refused(tmp_path):
+    report = run(tmp_path, """
+cnf(c1, plain, idle(truck2) | loaded(truck1), inference(splitLeft, [status(thm)], [shift])).
+""")
+    assert (report.first_failure.name, report.first_failure.reason) == ("c1", "not_a_component")
+
+
 def test_a_branch_closed_under_an_outer_assumption_keeps_it_open(tmp_path):
     # The branch c2 of c1's clause is closed by a `$false` that also rests on
     # the outer assumption a0; the other side carries a0, so the final

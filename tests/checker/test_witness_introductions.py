@@ -179,3 +179,60 @@ def test_two_introduced_leaves_never_share_a_symbol(tmp_path):
     assert steps["ch1"].outcome == RECONSTRUCTED
     assert steps["ch2"].outcome == FAILED and "reason: not_fresh" in steps["ch2"].details
     assert report.verdict != ACCEPTED
+
+
+# A clause-form step that Skolemizes and also weakens by a literal over
+# symbols of the problem (here `staffed(desk)`): the new but stale symbols
+# witness nothing, the fresh one (sk0) witnesses the existential.
+READERS = """
+fof(doors_have_readers, axiom, ! [D] : (door(D) => ? [R] : reads(R, D))).
+fof(lobby_door, axiom, door(lobby)).
+fof(desk_unstaffed, axiom, ~ staffed(desk)).
+fof(keepers, axiom, ! [D] : holds(keeper(D), D)).
+fof(lobby_read, conjecture, ? [R] : reads(R, lobby)).
+"""
+
+READERS_PROOF = """
+fof(doors_have_readers, axiom, ! [D] : (door(D) => ? [R] : reads(R, D)), file('problem.p', doors_have_readers)).
+fof(lobby_door, axiom, door(lobby), file('problem.p', lobby_door)).
+fof(desk_unstaffed, axiom, ~ staffed(desk), file('problem.p', desk_unstaffed)).
+fof(lobby_read, conjecture, ? [R] : reads(R, lobby), file('problem.p', lobby_read)).
+fof(n, negated_conjecture, ~ ? [R] : reads(R, lobby), inference(negated_conjecture, [status(cth)], [lobby_read])).
+cnf(c1, plain, CLAIM, inference(cnf_transformation, [status(thm)], [doors_have_readers])).
+cnf(c2, plain, door(lobby), inference(cnf_transformation, [status(thm)], [lobby_door])).
+cnf(c3, plain, ~ reads(X0, lobby), inference(cnf_transformation, [status(thm)], [n])).
+cnf(c4, plain, reads(sk0(lobby), lobby) | staffed(desk), inference(resolution, [status(thm)], [c1, c2])).
+cnf(c5, plain, staffed(desk), inference(resolution, [status(thm)], [c4, c3])).
+cnf(c6, plain, ~ staffed(desk), inference(cnf_transformation, [status(thm)], [desk_unstaffed])).
+cnf(c7, plain, $false, inference(resolution, [status(thm)], [c5, c6])).
+"""
+
+
+def _readers(tmp_path, claim: str):
+    (tmp_path / "problem.p").write_text(READERS)
+    (tmp_path / "proof.p").write_text(READERS_PROOF.replace("CLAIM", claim))
+    return check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"))
+
+
+def test_a_skolemizing_step_weakened_by_a_problem_literal_is_accepted(tmp_path):
+    report = _readers(tmp_path, "~ door(X0) | reads(sk0(X0), X0) | staffed(desk)")
+    assert report.verdict == ACCEPTED, report.first_failure
+    c1 = next(s for s in report.steps if s.name == "c1")
+    assert c1.outcome == RECONSTRUCTED and "introducing sk0/1" in c1.message
+    assert "desk/0, staffed/1 used as in the problem or earlier steps" in c1.message
+
+
+def test_a_problem_symbol_as_the_only_witness_is_still_not_fresh(tmp_path):
+    # keeper/1 is the problem's: no fresh symbol is left to witness R.
+    report = _readers(tmp_path, "~ door(X0) | reads(keeper(X0), X0) | staffed(desk)")
+    assert (report.first_failure.name, report.first_failure.reason) == ("c1", "not_fresh")
+
+
+def test_a_stale_symbol_beside_a_fresh_witness_must_not_witness_either(tmp_path):
+    # With sk0 fresh and keeper/1 taken as it is, the claim does not
+    # follow (reads(keeper(X0), X0) is not implied): the stale symbol is the
+    # fault reported, never a counter-model.
+    report = _readers(tmp_path, "~ door(X0) | reads(keeper(X0), X0) | ~ reads(sk0(X0), X0)")
+    failure = report.first_failure
+    assert (failure.name, failure.outcome, failure.reason) == ("c1", FAILED, "not_fresh")
+    assert "keeper/1" in failure.message
