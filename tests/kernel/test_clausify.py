@@ -205,7 +205,8 @@ def test_a_first_disjunct_too_large_to_multiply_out_is_named_alone():
         large = binary(AND, large, part)
     formula = binary(OR, large, negation(q))
     result = clausify([formula])
-    assert len(result.fresh_symbols) == 1
+    # The fresh atom is a nullary predicate named like every definition.
+    assert result.fresh_symbols == (FreshSymbol("definition_1", 0, "definition", 0),)
     assert len(result.clauses) == len(parts) + 1
     assert_conservative(formula, result)
 
