@@ -70,8 +70,28 @@ def wall_backstop(mutants):
                             pass
     return watch
 
+def timed_stats(run_stats):
+    # mutmut keeps the duration of a test's last phase (its teardown, near 0 s),
+    # which makes every estimate 0: keep the sum of setup, call and teardown.
+    def run(self, *, tests):
+        totals = {}
+
+        class Durations:
+            def pytest_runtest_logreport(self, report):
+                totals[report.nodeid] = totals.get(report.nodeid, 0) + report.duration
+
+        execute = self.execute_pytest
+        self.execute_pytest = lambda params, **kw: execute(params, **{**kw, "plugins": [*kw.get("plugins", []), Durations()]})
+        try:
+            return run_stats(self, tests=tests)
+        finally:
+            del self.execute_pytest
+            mm.mutmut.duration_by_test.update(totals)
+    return run
+
 mm.resource = CpuLimit
 mm.timeout_checker = wall_backstop
+mm.PytestRunner.run_stats = timed_stats(mm.PytestRunner.run_stats)
 sys.exit(mm.cli())
 """
 
@@ -157,6 +177,7 @@ def main() -> None:
     parser.add_argument("--scratch", type=Path, default=Path("/tmp/assay-kernel-mutation"))
     parser.add_argument("--examples", type=int, default=20, help="hypothesis examples per property test")
     parser.add_argument("--report-only", action="store_true", help="print the figures of an earlier run")
+    parser.add_argument("--resume", action="store_true", help="go on with the mutants an earlier run left unchecked")
     parser.add_argument("--module", action="append", default=[], help="mutate only this kernel file (repeatable)")
     parser.add_argument("--tests", action="append", default=[], help="run only this file of tests/kernel (repeatable)")
     parser.add_argument("--cpu-factor", type=float, default=5,
@@ -167,7 +188,8 @@ def main() -> None:
                         help="backstop: stop a mutant after this many times its CPU allowance in wall time")
     options = parser.parse_args()
     if not options.report_only:
-        prepare(options.scratch, options.examples, options.module, options.tests)
+        if not options.resume:
+            prepare(options.scratch, options.examples, options.module, options.tests)
         mutmut(options.scratch, ["run", "--max-children", str(options.jobs)], options.cpu_factor, options.wall_factor)
         stopped = [name for name, status in results(options.scratch) if status == "timeout"]
         if stopped and options.recheck_factor:

@@ -183,15 +183,16 @@ def test_axioms_of_choice_are_accepted(text, witnesses):
 
 
 @pytest.mark.parametrize(
-    ("text", "witnesses", "reason"),
+    ("text", "witnesses", "reason", "said"),
     [
-        ("(? [Y] : p(X,Y)) => p(X,f(X))", {"Y": "f(X)"}, "choice_not_closed"),
-        ("! [X] : (p(X) & q(X))", {"X": "c"}, "not_a_choice_axiom"),
-        ("! [X] : (p(X) => q(X))", {"X": "c"}, "not_a_choice_axiom"),
-        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f))", {"Y": "f"}, "missing_dependency"),
-        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f(X)))", {"Y": "h(X)"}, "not_a_choice_axiom"),
+        ("(? [Y] : p(X,Y)) => p(X,f(X))", {"Y": "f(X)"}, "choice_not_closed", "has free variables"),
+        ("! [X] : (p(X) & q(X))", {"X": "c"}, "not_a_choice_axiom", "is not an implication under universal quantifiers"),
+        ("! [X] : (p(X) => q(X))", {"X": "c"}, "not_a_choice_axiom", "is existential nor"),
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f))", {"Y": "f"}, "missing_dependency", "does not depend on X"),
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f(X)))", {"Y": "h(X)"}, "not_a_choice_axiom", "at the witnesses"),
     ],
 )
-def test_formulas_that_are_not_axioms_of_choice(text, witnesses, reason):
+def test_formulas_that_are_not_axioms_of_choice(text, witnesses, reason, said):
     failure = check_choice_axiom(parse_formula(text), {variable(v): parse_term(t) for v, t in witnesses.items()})
     assert isinstance(failure, Failure) and failure.reason == reason
+    assert said in failure.message
