@@ -131,6 +131,16 @@ def test_alpha_equivalence_renames_bound_variables():
     assert alpha_equivalent(exists([X], forall([Y], feeds(X, Y))), exists([Z], forall([W], feeds(Z, W))))
 
 
+def test_alpha_equivalence_never_matches_a_variable_with_a_constant_of_its_name():
+    # A term's kind, not its name, makes it a variable: ! [X] : open(X) says
+    # every valve is open, open(X) with a constant named X one valve only
+    # (common practice).  Either side may hold the constant.
+    constant = application("X")
+    assert not alpha_equivalent(forall([X], opened(X)), forall([X], opened(constant)))
+    assert not alpha_equivalent(forall([X], opened(constant)), forall([X], opened(X)))
+    assert not alpha_equivalent(opened(X), opened(constant))
+
+
 def test_alpha_equivalence_does_not_capture_or_confuse_free_and_bound():
     assert not alpha_equivalent(forall([X], feeds(X, Y)), forall([Y], feeds(Y, Y)))
     assert not alpha_equivalent(opened(X), opened(Y))
