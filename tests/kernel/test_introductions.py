@@ -77,6 +77,11 @@ def test_quantifier_under_an_equivalence_may_not_be_replaced():
     failure = skolemize(premise, quantifier_in(premise, "? [X] : p(X)"), {X: application("k")})
     assert failure.reason == "wrong_polarity"
     assert "only under an equivalence" in failure.message
+    # Under an equivalence and in negative polarity: both places are named.
+    premise = parse_formula("((? [X] : p(X)) <=> r) & ~ (? [X] : p(X))")
+    failure = skolemize(premise, quantifier_in(premise, "? [X] : p(X)"), {X: application("k")})
+    assert failure.reason == "wrong_polarity"
+    assert "only in negative polarity and under an equivalence," in failure.message
 
 
 def test_a_universal_of_positive_polarity_may_not_be_replaced():
@@ -94,6 +99,7 @@ def test_quantifier_that_does_not_occur():
     premise = parse_formula("r & s")
     failure = skolemize(premise, parse_formula("? [X] : p(X)"), {X: application("k")})
     assert failure.reason == "no_occurrence"
+    assert failure.message == "`? [X] : p(X)` does not occur in `r & s`"
 
 
 @pytest.mark.parametrize(
