@@ -326,6 +326,17 @@ def test_substitution_skips_names_already_used_when_renaming():
     assert instance is forall([variable("Y2")], binary(AND, feeds(Y, variable("Y2")), opened(variable("Y1"))))
 
 
+def test_substitution_skips_names_used_after_a_repeated_subformula():
+    # The renamed binder must avoid every variable name of the formula
+    # (capture-avoiding substitution, common practice), also those read
+    # after a subformula that occurs twice (alarm & alarm).
+    y1 = variable("Y1")
+    formula = binary(AND, forall([Y], binary(AND, feeds(X, Y), opened(y1))), binary(AND, alarm, alarm))
+    instance = substitute_free(formula, Substitution({X: Y}))
+    y2 = variable("Y2")
+    assert instance is binary(AND, forall([y2], binary(AND, feeds(Y, y2), opened(y1))), binary(AND, alarm, alarm))
+
+
 def test_substitution_renames_two_capturing_binders_apart():
     # Capture-avoiding substitution, renaming each binder the new term
     # would capture (common practice): both bound Y and Z meet drain(Y, Z).
