@@ -263,3 +263,6 @@ def test_quote_and_describe_position():
     long_text = quote("x" * 150 + "y" * 150)
     assert long_text.startswith("`" + "x" * 150) and long_text.endswith("y` (300 characters)")
     assert describe_position(()) == "root" and describe_position((2, 1)) == "2.1"
+    # Exactly SHOWN_CHARACTERS characters are shown in full, as for quote.
+    at_the_limit = (1,) * 99 + (10,)
+    assert describe_position(at_the_limit) == "1." * 99 + "10" and len("1." * 99 + "10") == SHOWN_CHARACTERS
