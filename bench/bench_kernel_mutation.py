@@ -10,12 +10,15 @@ checker/kernel/MUTANTS.md (equivalent, or killed by a test added since).
 Prints figures, asserts nothing.  Usage:
     python3 bench/bench_kernel_mutation.py [--jobs N] [--scratch DIR] [--examples N]
         [--module substitution.py --tests test_substitution.py ...]   (a part of the kernel)
-Needs ``pip install mutmut`` (3.x).  Takes an hour or more on two cores.
+        [--cpu-factor F] [--recheck-factor R] [--resume] [--report-only]
+Needs ``pip install mutmut`` (3.x).  Takes several hours on two cores for
+the whole kernel; a module or two at a time is practical.
 """
 
 from __future__ import annotations
 
 import argparse
+import json
 import os
 import shutil
 import subprocess
@@ -125,8 +128,24 @@ def prepare(scratch: Path, examples: int, modules: list[str], tests: list[str]) 
     (scratch / "setup.cfg").write_text("\n".join(lines) + "\n", encoding="utf-8")
 
 
+INTERRUPTED = (-2, -9, -15)
+"""Exit codes of a mutant whose run was stopped from outside (SIGINT, SIGKILL,
+SIGTERM): mutmut has no status for them, and its listing stops there."""
+
+
+def forget_interrupted(scratch: Path) -> None:
+    """Mark the mutants of an interrupted run that were cut short as unchecked."""
+    for meta in (scratch / "mutants").rglob("*.meta"):
+        data = json.loads(meta.read_text(encoding="utf-8"))
+        codes = data["exit_code_by_key"]
+        if any(code in INTERRUPTED for code in codes.values()):
+            data["exit_code_by_key"] = {k: None if c in INTERRUPTED else c for k, c in codes.items()}
+            meta.write_text(json.dumps(data, indent=4), encoding="utf-8")
+
+
 def results(scratch: Path) -> list[tuple[str, str]]:
     """(mutant, status) pairs as mutmut lists them."""
+    forget_interrupted(scratch)
     shown = subprocess.run(
         [*MUTMUT, "results", "--all", "true"],
         cwd=scratch, capture_output=True, text=True, check=False,
