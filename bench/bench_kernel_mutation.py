@@ -10,12 +10,16 @@ checker/kernel/MUTANTS.md (equivalent, or killed by a test added since).
 Prints figures, asserts nothing.  Usage:
     python3 bench/bench_kernel_mutation.py [--jobs N] [--scratch DIR] [--examples N]
         [--module substitution.py --tests test_substitution.py ...]   (a part of the kernel)
-Needs ``pip install mutmut`` (3.x).  Takes an hour or more on two cores.
+        [--cpu-factor F] [--recheck-factor R] [--resume] [--report-only]
+Needs ``pip install mutmut`` (3.x).  Takes several hours on two cores for
+the whole kernel; a module or two at a time is practical.
 """
 
 from __future__ import annotations
 
 import argparse
+import json
+import os
 import shutil
 import subprocess
 import sys
@@ -26,6 +30,73 @@ ROOT = Path(__file__).resolve().parents[1]
 # mutmut's own module imported under its package name (not as __main__), so that
 # the mutated code's import of it does not set the process start method twice.
 MUTMUT = [sys.executable, "-c", "import sys; from mutmut.__main__ import cli; sys.exit(cli())"]
+
+# The same, with mutmut's limits replaced.  mutmut stops a mutant after 15 times
+# its tests' estimated time of *wall clock* (and 30 times in CPU time); on a shared
+# machine wall time says more about the neighbours than about the mutant, and 30
+# times a minute of tests is a long wait for a loop.  Here a mutant is stopped
+# after (estimated time + 1) * CPU_FACTOR seconds of *its own CPU time*, and wall
+# time only stops it past WALL_FACTOR times that (a backstop, not a judge).
+LIMITED = """
+import math, os, resource, signal, sys, threading, time
+from datetime import datetime
+import mutmut.__main__ as mm
+
+cpu_factor = float(os.environ["KERNEL_MUTATION_CPU_FACTOR"])
+wall_factor = float(os.environ["KERNEL_MUTATION_WALL_FACTOR"])
+
+class CpuLimit:
+    RLIMIT_CPU = resource.RLIMIT_CPU
+
+    @staticmethod
+    def setrlimit(which, limits):
+        # mutmut asks for ceil((estimate + 1) * 30 + CPU time so far): take the estimate back out.
+        spent = time.process_time()
+        limit = math.ceil(spent + (limits[0] - spent) / 30 * cpu_factor)
+        resource.setrlimit(which, (limit, limit + 1))
+
+def wall_backstop(mutants):
+    files = {id(m): m for m, _, _ in mutants}.values()
+    def watch():
+        while True:
+            time.sleep(5)
+            now = datetime.now()
+            for m in files:
+                with mm.START_TIMES_BY_PID_LOCK:
+                    started = dict(m.start_time_by_pid)
+                for pid, start in started.items():
+                    allowed = (m.estimated_time_of_tests_by_pid.get(pid, 0) + 1) * cpu_factor * wall_factor
+                    if (now - start).total_seconds() > allowed:
+                        try:
+                            os.kill(pid, signal.SIGXCPU)
+                        except ProcessLookupError:
+                            pass
+    return watch
+
+def timed_stats(run_stats):
+    # mutmut keeps the duration of a test's last phase (its teardown, near 0 s),
+    # which makes every estimate 0: keep the sum of setup, call and teardown.
+    def run(self, *, tests):
+        totals = {}
+
+        class Durations:
+            def pytest_runtest_logreport(self, report):
+                totals[report.nodeid] = totals.get(report.nodeid, 0) + report.duration
+
+        execute = self.execute_pytest
+        self.execute_pytest = lambda params, **kw: execute(params, **{**kw, "plugins": [*kw.get("plugins", []), Durations()]})
+        try:
+            return run_stats(self, tests=tests)
+        finally:
+            del self.execute_pytest
+            mm.mutmut.duration_by_test.update(totals)
+    return run
+
+mm.resource = CpuLimit
+mm.timeout_checker = wall_backstop
+mm.PytestRunner.run_stats = timed_stats(mm.PytestRunner.run_stats)
+sys.exit(mm.cli())
+"""
 
 PROFILE = '''
 # Added by bench/bench_kernel_mutation.py: a fixed, smaller replay of the
@@ -57,8 +128,24 @@ def prepare(scratch: Path, examples: int, modules: list[str], tests: list[str]) 
     (scratch / "setup.cfg").write_text("\n".join(lines) + "\n", encoding="utf-8")
 
 
+INTERRUPTED = (-2, -9, -15)
+"""Exit codes of a mutant whose run was stopped from outside (SIGINT, SIGKILL,
+SIGTERM): mutmut has no status for them, and its listing stops there."""
+
+
+def forget_interrupted(scratch: Path) -> None:
+    """Mark the mutants of an interrupted run that were cut short as unchecked."""
+    for meta in (scratch / "mutants").rglob("*.meta"):
+        data = json.loads(meta.read_text(encoding="utf-8"))
+        codes = data["exit_code_by_key"]
+        if any(code in INTERRUPTED for code in codes.values()):
+            data["exit_code_by_key"] = {k: None if c in INTERRUPTED else c for k, c in codes.items()}
+            meta.write_text(json.dumps(data, indent=4), encoding="utf-8")
+
+
 def results(scratch: Path) -> list[tuple[str, str]]:
     """(mutant, status) pairs as mutmut lists them."""
+    forget_interrupted(scratch)
     shown = subprocess.run(
         [*MUTMUT, "results", "--all", "true"],
         cwd=scratch, capture_output=True, text=True, check=False,
@@ -71,26 +158,67 @@ def results(scratch: Path) -> list[tuple[str, str]]:
     return pairs
 
 
+def mutmut(scratch: Path, arguments: list[str], cpu_factor: float, wall_factor: float) -> None:
+    """One mutmut run with the CPU limit of LIMITED."""
+    environment = {**os.environ, "KERNEL_MUTATION_CPU_FACTOR": str(cpu_factor),
+                   "KERNEL_MUTATION_WALL_FACTOR": str(wall_factor)}
+    subprocess.run([sys.executable, "-c", LIMITED, *arguments], cwd=scratch, env=environment, check=False)
+
+
+def module_of(mutant: str) -> str:
+    """'checker.kernel.rules.x_resolve__mutmut_3' -> 'rules.py'."""
+    return mutant.split(".")[2] + ".py"
+
+
+def report(pairs: list[tuple[str, str]]) -> None:
+    """A table per kernel module and in all: killed by a test, stopped by the limit, survived."""
+    by_module: dict[str, Counter] = {}
+    for name, status in pairs:
+        by_module.setdefault(module_of(name), Counter())[status] += 1
+    print(f"\n{'module':<18}{'mutants':>8}{'killed':>8}{'limit':>7}{'survived':>9}{'other':>7}  kill rate")
+    total = Counter()
+    for module, tally in [*sorted(by_module.items()), ("all", None)]:
+        tally = tally if tally is not None else total
+        if module != "all":
+            total.update(tally)
+        killed, limit = tally["killed"] + tally["segfault"], tally["timeout"]
+        survived = tally["survived"] + tally["no tests"]
+        other = sum(tally.values()) - killed - limit - survived
+        judged = killed + limit + survived
+        rate = f"{100 * (killed + limit) / judged:.1f}%" if judged else "-"
+        print(f"{module:<18}{sum(tally.values()):>8}{killed:>8}{limit:>7}{survived:>9}{other:>7}  {rate}")
+    print("(limit: stopped by the CPU limit, counted as killed; other: not checked, skipped, suspicious)")
+
+
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--jobs", type=int, default=2)
     parser.add_argument("--scratch", type=Path, default=Path("/tmp/assay-kernel-mutation"))
     parser.add_argument("--examples", type=int, default=20, help="hypothesis examples per property test")
     parser.add_argument("--report-only", action="store_true", help="print the figures of an earlier run")
+    parser.add_argument("--resume", action="store_true", help="go on with the mutants an earlier run left unchecked")
     parser.add_argument("--module", action="append", default=[], help="mutate only this kernel file (repeatable)")
     parser.add_argument("--tests", action="append", default=[], help="run only this file of tests/kernel (repeatable)")
+    parser.add_argument("--cpu-factor", type=float, default=5,
+                        help="stop a mutant after (its tests' estimated seconds + 1) * this much CPU time")
+    parser.add_argument("--recheck-factor", type=float, default=30,
+                        help="run the stopped mutants again with this factor, to tell slow from looping (0: no)")
+    parser.add_argument("--wall-factor", type=float, default=20,
+                        help="backstop: stop a mutant after this many times its CPU allowance in wall time")
     options = parser.parse_args()
     if not options.report_only:
-        prepare(options.scratch, options.examples, options.module, options.tests)
-        subprocess.run([*MUTMUT, "run", "--max-children", str(options.jobs)],
-                       cwd=options.scratch, check=False)
+        if not options.resume:
+            prepare(options.scratch, options.examples, options.module, options.tests)
+        mutmut(options.scratch, ["run", "--max-children", str(options.jobs)], options.cpu_factor, options.wall_factor)
+        stopped = [name for name, status in results(options.scratch) if status == "timeout"]
+        if stopped and options.recheck_factor:
+            print(f"\nrunning the {len(stopped)} stopped mutants again with CPU factor {options.recheck_factor}")
+            mutmut(options.scratch, ["run", "--max-children", str(options.jobs), *stopped],
+                   options.recheck_factor, options.wall_factor)
     pairs = results(options.scratch)
     tally = Counter(status for _, status in pairs)
-    judged = sum(n for status, n in tally.items() if status not in ("not checked", "skipped"))
-    killed = tally["killed"] + tally["timeout"] + tally["segfault"]
     print(f"\nkernel mutants: {len(pairs)}  " + ", ".join(f"{n} {s}" for s, n in sorted(tally.items())))
-    if judged:
-        print(f"kill rate: {killed}/{judged} = {100 * killed / judged:.1f}% (timeouts and crashes count as killed)")
+    report(pairs)
     for name, status in pairs:
         if status in ("survived", "no tests"):
             diff = subprocess.run([*MUTMUT, "show", name], cwd=options.scratch,

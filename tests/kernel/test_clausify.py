@@ -205,9 +205,28 @@ def test_a_first_disjunct_too_large_to_multiply_out_is_named_alone():
         large = binary(AND, large, part)
     formula = binary(OR, large, negation(q))
     result = clausify([formula])
-    assert len(result.fresh_symbols) == 1
+    # The fresh atom is a nullary predicate named like every definition.
+    assert result.fresh_symbols == (FreshSymbol("definition_1", 0, "definition", 0),)
     assert len(result.clauses) == len(parts) + 1
     assert_conservative(formula, result)
+
+def test_a_named_disjunct_keeps_its_variables():
+    # Plaisted and Greenbaum's naming (from memory): the fresh atom takes the
+    # named part's free variables, d(X), with one clause ~d(X) | C per clause
+    # C of the part.  A nullary d would claim (! [X] : A) | (! [X] : B), which
+    # is stronger than ! [X] : (A | B).  Rail scenario: a block is either
+    # checked on nine counts or under guard.
+    checks = [atom(f"check_{n}", X) for n in range(DISTRIBUTION_LIMIT + 1)]
+    large = checks[0]
+    for check in checks[1:]:
+        large = binary(AND, large, check)
+    result = clausify([forall([X], binary(OR, large, atom("guard", X)))])
+    assert result.fresh_symbols == (FreshSymbol("definition_1", 1, "definition", 0),)
+    assert result.clauses == (
+        Clause([positive("definition_1", X), positive("guard", X)]),
+        *(Clause([negative("definition_1", X), positive(f"check_{n}", X)]) for n in range(DISTRIBUTION_LIMIT + 1)),
+    )
+
 
 # --- deep input ---------------------------------------------------------------
 

@@ -36,6 +36,20 @@ def test_a_distributed_formula_is_covered_clause_by_clause():
     assert check_entailment([premise], conclusion, Cover(())) is None
 
 
+def test_an_equivalence_covers_its_textbook_expansion_without_naming():
+    # v <=> (s & a) is (v => s) & (v => a) & ((s & a) => v): the textbook
+    # expansion of <=> (common practice).  Side by side without naming, both
+    # give the clauses ~v|s, ~v|a, v|~s|~a, so nothing is left to match; a
+    # named side would leave the premise with a definition atom instead.
+    premise = parse_formula("vented(z1) <=> (sealed(z1) & armed(z1))")
+    conclusion = parse_formula(
+        "(vented(z1) => sealed(z1)) & (vented(z1) => armed(z1)) & ((sealed(z1) & armed(z1)) => vented(z1))"
+    )
+    premise_clauses, conclusion_clauses, _ = cover_clauses([premise], conclusion)
+    assert len(premise_clauses) == 3 and conclusion_clauses == ()
+    assert check_cover([premise], conclusion, Cover(())) is None
+
+
 def test_a_renamed_and_shifted_quantifier_is_covered_under_a_substitution():
     # ![X] : (p(X) & r) and r & ![Y] : p(Y) are equivalent (quantifier shifting).
     premise = parse_formula("![X] : (safe(X) & alarm_off)")
@@ -63,9 +77,14 @@ def test_every_conclusion_clause_needs_a_match():
     conclusion = parse_formula("armed(z1) & vented(z2)")
     failure = check_cover([premise], conclusion, Cover(((0, IDENTITY),)))
     assert failure is not None and failure.reason == "cover_incomplete"
+    assert failure.message == "the conclusion has 2 clauses and the cover matches 1"
     failure = check_cover([premise], conclusion, Cover(((7, IDENTITY), (0, IDENTITY))))
     assert failure is not None and failure.reason == "no_such_clause"
+    assert failure.message == "the premises have no clause 7"
     failure = check_cover([premise], conclusion, Cover(((-1, IDENTITY), (0, IDENTITY))))
+    assert failure is not None and failure.reason == "no_such_clause"
+    # One past the last premise clause (there are two) is out of range too.
+    failure = check_cover([premise], conclusion, Cover(((2, IDENTITY), (0, IDENTITY))))
     assert failure is not None and failure.reason == "no_such_clause"
 
 
@@ -91,6 +110,7 @@ def test_only_the_conclusions_skolem_symbols_may_be_renamed():
     conclusion = parse_formula("armed(z2)")
     failure = check_cover([premise], conclusion, Cover(((0, IDENTITY),), (("z2", "z1"),)))
     assert failure is not None and failure.reason == "renames_a_symbol"
+    assert failure.message == "only the conclusion's Skolem symbols may be renamed, not `z2`"
 
 
 def test_a_premise_skolem_symbol_cannot_stand_for_a_given_constant():

@@ -131,6 +131,16 @@ def test_alpha_equivalence_renames_bound_variables():
     assert alpha_equivalent(exists([X], forall([Y], feeds(X, Y))), exists([Z], forall([W], feeds(Z, W))))
 
 
+def test_alpha_equivalence_never_matches_a_variable_with_a_constant_of_its_name():
+    # A term's kind, not its name, makes it a variable: ! [X] : open(X) says
+    # every valve is open, open(X) with a constant named X one valve only
+    # (common practice).  Either side may hold the constant.
+    constant = application("X")
+    assert not alpha_equivalent(forall([X], opened(X)), forall([X], opened(constant)))
+    assert not alpha_equivalent(forall([X], opened(constant)), forall([X], opened(X)))
+    assert not alpha_equivalent(opened(X), opened(constant))
+
+
 def test_alpha_equivalence_does_not_capture_or_confuse_free_and_bound():
     assert not alpha_equivalent(forall([X], feeds(X, Y)), forall([Y], feeds(Y, Y)))
     assert not alpha_equivalent(opened(X), opened(Y))
@@ -314,6 +324,17 @@ def test_substitution_skips_names_already_used_when_renaming():
     formula = forall([Y], binary(AND, feeds(X, Y), opened(variable("Y1"))))
     instance = substitute_free(formula, Substitution({X: Y}))
     assert instance is forall([variable("Y2")], binary(AND, feeds(Y, variable("Y2")), opened(variable("Y1"))))
+
+
+def test_substitution_skips_names_used_after_a_repeated_subformula():
+    # The renamed binder must avoid every variable name of the formula
+    # (capture-avoiding substitution, common practice), also those read
+    # after a subformula that occurs twice (alarm & alarm).
+    y1 = variable("Y1")
+    formula = binary(AND, forall([Y], binary(AND, feeds(X, Y), opened(y1))), binary(AND, alarm, alarm))
+    instance = substitute_free(formula, Substitution({X: Y}))
+    y2 = variable("Y2")
+    assert instance is binary(AND, forall([y2], binary(AND, feeds(Y, y2), opened(y1))), binary(AND, alarm, alarm))
 
 
 def test_substitution_renames_two_capturing_binders_apart():

@@ -77,6 +77,11 @@ def test_quantifier_under_an_equivalence_may_not_be_replaced():
     failure = skolemize(premise, quantifier_in(premise, "? [X] : p(X)"), {X: application("k")})
     assert failure.reason == "wrong_polarity"
     assert "only under an equivalence" in failure.message
+    # Under an equivalence and in negative polarity: both places are named.
+    premise = parse_formula("((? [X] : p(X)) <=> r) & ~ (? [X] : p(X))")
+    failure = skolemize(premise, quantifier_in(premise, "? [X] : p(X)"), {X: application("k")})
+    assert failure.reason == "wrong_polarity"
+    assert "only in negative polarity and under an equivalence," in failure.message
 
 
 def test_a_universal_of_positive_polarity_may_not_be_replaced():
@@ -94,6 +99,7 @@ def test_quantifier_that_does_not_occur():
     premise = parse_formula("r & s")
     failure = skolemize(premise, parse_formula("? [X] : p(X)"), {X: application("k")})
     assert failure.reason == "no_occurrence"
+    assert failure.message == "`? [X] : p(X)` does not occur in `r & s`"
 
 
 @pytest.mark.parametrize(
@@ -183,15 +189,16 @@ def test_axioms_of_choice_are_accepted(text, witnesses):
 
 
 @pytest.mark.parametrize(
-    ("text", "witnesses", "reason"),
+    ("text", "witnesses", "reason", "said"),
     [
-        ("(? [Y] : p(X,Y)) => p(X,f(X))", {"Y": "f(X)"}, "choice_not_closed"),
-        ("! [X] : (p(X) & q(X))", {"X": "c"}, "not_a_choice_axiom"),
-        ("! [X] : (p(X) => q(X))", {"X": "c"}, "not_a_choice_axiom"),
-        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f))", {"Y": "f"}, "missing_dependency"),
-        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f(X)))", {"Y": "h(X)"}, "not_a_choice_axiom"),
+        ("(? [Y] : p(X,Y)) => p(X,f(X))", {"Y": "f(X)"}, "choice_not_closed", "has free variables"),
+        ("! [X] : (p(X) & q(X))", {"X": "c"}, "not_a_choice_axiom", "is not an implication under universal quantifiers"),
+        ("! [X] : (p(X) => q(X))", {"X": "c"}, "not_a_choice_axiom", "is existential nor"),
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f))", {"Y": "f"}, "missing_dependency", "does not depend on X"),
+        ("! [X] : ((? [Y] : p(X,Y)) => p(X,f(X)))", {"Y": "h(X)"}, "not_a_choice_axiom", "at the witnesses"),
     ],
 )
-def test_formulas_that_are_not_axioms_of_choice(text, witnesses, reason):
+def test_formulas_that_are_not_axioms_of_choice(text, witnesses, reason, said):
     failure = check_choice_axiom(parse_formula(text), {variable(v): parse_term(t) for v, t in witnesses.items()})
     assert isinstance(failure, Failure) and failure.reason == reason
+    assert said in failure.message

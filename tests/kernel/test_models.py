@@ -268,7 +268,9 @@ def test_falsified_instances_show_domain_elements():
 
 def test_no_falsified_instance_when_the_conclusion_is_true_or_unknown():
     true_clause = Clause([Literal(True, trusts(admin, U))])
-    assert falsified_instance(POLICY, true_clause).reason == "conclusion_true"
+    failure = falsified_instance(POLICY, true_clause)
+    assert failure.reason == "conclusion_true"
+    assert failure.message == f"the conclusion `{true_clause}` is true in the model"
     assert falsified_instance(POLICY, forall([U], atomic(trusts(admin, U)))).reason == "conclusion_true"
     unknown = application("writes", (U,))
     assert falsified_instance(POLICY, Clause([Literal(True, unknown)])).reason == "missing_table"

@@ -37,12 +37,41 @@ def test_a_lemma_that_does_not_propagate_is_refused():
 
 
 def test_lemmas_must_end_in_the_empty_clause():
-    assert check_unit_refutation(ALL_SIGNS, clauses_of("q")).reason == "refutation_incomplete"
+    failure = check_unit_refutation(ALL_SIGNS, clauses_of("q"))
+    assert failure.reason == "refutation_incomplete"
+    assert failure.message == "the lemmas do not end in the empty clause"
     assert check_unit_refutation(ALL_SIGNS, []).reason == "refutation_incomplete"
 
 
 def test_an_empty_input_clause_is_a_conflict_at_once():
     assert check_unit_refutation([Clause()], [Clause()]) is None
+
+
+def test_an_empty_input_clause_stays_a_conflict_after_other_clauses():
+    # The empty clause has no model, whatever clauses come after it (common practice).
+    assert check_unit_refutation([Clause(), *clauses_of("p")], [Clause()]) is None
+
+
+def test_a_tautological_lemma_is_unit_implied():
+    # Setting both r and ~r false is a conflict before any clause is read
+    # (reverse unit propagation, common practice).
+    assert check_unit_refutation(ALL_SIGNS, clauses_of("r | ~r", "q", "$false")) is None
+
+
+def test_propagation_goes_on_past_a_literal_assumed_twice():
+    # The lemma ~s | ~p repeats the unit clause p; assuming s as well gives
+    # t and ~t.  Unsatisfiable: s forces t and ~t, ~s forces q and ~q
+    # (checked by hand, common practice).
+    clauses = clauses_of("p", "~s | t", "~s | ~t", "s | q", "s | ~q")
+    assert check_unit_refutation(clauses, clauses_of("~s | ~p", "~s", "$false")) is None
+
+
+def test_propagation_goes_on_past_a_satisfied_clause():
+    # With x and y assumed, ~x | y is already true; ~x | z still gives z,
+    # and z gives w and ~w.  Unsatisfiable: x leads to that conflict, ~x
+    # forces v and ~v (checked by hand, common practice).
+    clauses = clauses_of("~x | y", "~x | z", "~z | w", "~z | ~w", "x | v", "x | ~v")
+    assert check_unit_refutation(clauses, clauses_of("~x | ~y", "~x", "$false")) is None
 
 
 def test_atoms_with_arguments_are_propositional_variables():

@@ -39,10 +39,14 @@ def test_premise_out_of_range():
     assert failure.reason == "premise_out_of_range"
     assert failure.message == "right premise 3 does not exist (the step has 1)"
     assert refused([P_OF_X], Instantiation(-1)).message == "instantiated premise -1 does not exist (the step has 1)"
-    assert refused([], Paramodulation(0, 0, True, 0, 0, (1,))).reason == "premise_out_of_range"
+    assert refused([], Paramodulation(0, 0, True, 0, 0, (1,))).message == "equation premise 0 does not exist (the step has 0)"
     assert refused([P_OF_X], Paramodulation(0, 0, True, 1, 0, (1,))).message.startswith("target premise 1")
-    assert refused([], EqualityResolution(0, 0)).reason == "premise_out_of_range"
-    assert refused([], EqualityFactoring(0, 0, 1)).reason == "premise_out_of_range"
+    failure = refused([], EqualityResolution(0, 0))
+    assert failure.reason == "premise_out_of_range"
+    assert failure.message == "equality resolution premise 0 does not exist (the step has 0)"
+    failure = refused([], EqualityFactoring(0, 0, 1))
+    assert failure.reason == "premise_out_of_range"
+    assert failure.message == "equality factoring premise 0 does not exist (the step has 0)"
     assert refused([], Resolution(0, 0, 0, 0)).message.startswith("left premise 0")
 
 
@@ -263,3 +267,6 @@ def test_quote_and_describe_position():
     long_text = quote("x" * 150 + "y" * 150)
     assert long_text.startswith("`" + "x" * 150) and long_text.endswith("y` (300 characters)")
     assert describe_position(()) == "root" and describe_position((2, 1)) == "2.1"
+    # Exactly SHOWN_CHARACTERS characters are shown in full, as for quote.
+    at_the_limit = (1,) * 99 + (10,)
+    assert describe_position(at_the_limit) == "1." * 99 + "10" and len("1." * 99 + "10") == SHOWN_CHARACTERS
