@@ -23,13 +23,16 @@ from dataclasses import dataclass, replace
 
 from checker.formula_steps import as_formula
 from checker.kernel.clauses import Clause
+from checker.kernel.rules import Paramodulation, replay
 from checker.kernel.formulas import negation
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
 from checker.search.demodulation import demodulants, describe_rewriting, is_rewriting
 from checker.search.evidence import candidates, describe
 from checker.search.findings import note_nested
+from checker.search.ordered_rewriting import everywhere
 from checker.search.saturation import premise_references
+from checker.search.term_order import TermOrder
 from checker.statuses import weakest_status
 from formats.derivation import Parent, Statement
 
@@ -53,24 +56,32 @@ class Option:
     """the kernel-replayed inference that computed it"""
 
 
-def _conclusions(premises: list[Clause], rule: str) -> list[tuple[Clause, str, object]]:
+def _conclusions(premises: list[Clause], rule: str, order: TermOrder | None) -> list[tuple[Clause, str, object]]:
     """Distinct conclusions of kernel-replayed inferences from ``premises``
     (with their evidence): for a rewriting record its computed rewrites
-    first, then single inferences, those that use every premise first."""
+    first (the prover's by ``order`` first), then single inferences, those
+    that use every premise first, a paramodulation replacing every
+    occurrence of its term before the one replacing a single occurrence."""
     using_all: list[tuple[Clause, str, object]] = []
     others: list[tuple[Clause, str, object]] = []
     seen: set[frozenset] = set()
     if is_rewriting(rule):
-        for computed, evidence in demodulants(premises):
+        for computed, evidence in demodulants(premises, order=order):
             seen.add(computed.literal_set)
             using_all.append((computed, describe_rewriting(evidence), evidence))
     for attempt in itertools.islice(candidates(premises, rule), 20 * CANDIDATES_PER_STEP):
-        if attempt.computed.literal_set in seen:
-            continue
-        seen.add(attempt.computed.literal_set)
         used = set(premise_references(attempt.evidence))
         target = using_all if used == set(range(len(premises))) else others
-        target.append((attempt.computed, describe(premises, attempt.evidence), attempt.evidence))
+        how = describe(premises, attempt.evidence)
+        shared = everywhere(premises, attempt.evidence, attempt.computed) if (
+            isinstance(attempt.evidence, Paramodulation) and not is_rewriting(rule)) else None
+        computed = replay(premises, shared) if shared is not None else None
+        if isinstance(computed, Clause) and computed.literal_set not in seen:
+            seen.add(computed.literal_set)
+            target.append((computed, f"{how}, at every occurrence", shared))
+        if attempt.computed.literal_set not in seen:
+            seen.add(attempt.computed.literal_set)
+            target.append((attempt.computed, how, attempt.evidence))
     return (using_all + others)[:CANDIDATES_PER_STEP]
 
 
@@ -147,10 +158,12 @@ def check_with_nested(
     statements: dict[str, Statement],
     check_step: CheckStep,
     cheap_step: CheckStep | None = None,
+    order: TermOrder | None = None,
 ) -> list[StepResult]:
     """Results for the nested steps (in order) and then the outer step.
     ``cheap_step`` checks a step with cheap bounds and no counter-model
-    searches; the combinations of options are tried with it first."""
+    searches; the combinations of options are tried with it first.
+    ``order`` is the term order the prover likely rewrote with."""
     assert outer.statement is not None
     negations, failure = _negations_of_conjectures(outer, nested, statements, check_step)
     if failure is not None:
@@ -165,7 +178,7 @@ def check_with_nested(
         if not nested:
             note_nested([_named(outer)])
             return [*settled, check_step(outer, [statements.get(name) for name in outer.parents])]
-        return [*settled, *check_with_nested(outer, nested, statements, check_step, cheap_step)]
+        return [*settled, *check_with_nested(outer, nested, statements, check_step, cheap_step, order)]
     options: dict[str, list[Option]] = {}
     for step in nested:  # parents first, as planned
         per_choice: list[list[Option]] = []
@@ -175,7 +188,7 @@ def check_with_nested(
                 continue
             picked = tuple((name, option) for name, (_, option) in zip(step.parents, choice) if option is not None)
             per_choice.append([Option(content, how, picked, evidence)
-                               for content, how, evidence in _conclusions(premises, step.inference.rule)])
+                               for content, how, evidence in _conclusions(premises, step.inference.rule, order)])
         options[step.name] = _round_robin(per_choice)
 
     by_name = {step.name: step for step in nested}

@@ -21,6 +21,7 @@ from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.nested import check_with_nested
+from checker.prover_order import derivation_order
 from checker.notes import introduced_symbols, notes_on
 from checker.outcomes import (
     ACCEPTED,
@@ -189,6 +190,7 @@ def _check(
     nested = _nested_by_outer(plan)
     branches = trace_branches(plan, statements)
     shared = shared_answers(statements.values())
+    order = derivation_order(statements, problem.statements if problem is not None else None) if nested else None
 
     def check_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
@@ -210,7 +212,7 @@ def _check(
         inner = nested.get(step.name, [])
         found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
         if not found and inner:
-            found = check_with_nested(step, inner, statements, check_step, cheap_step)
+            found = check_with_nested(step, inner, statements, check_step, cheap_step, order)
         elif not found and step.is_leaf:
             found = [check_branch_step(step, [], branches, statements, limits)
                      or check_leaf(step, problem, limits, context.symbols)]

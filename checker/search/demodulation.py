@@ -19,6 +19,8 @@ from checker.kernel.clauses import Clause, is_equality
 from checker.kernel.rules import Chain, Paramodulation, PrimitiveEvidence, replay
 from checker.search.chains import rewrites
 from checker.search.normal_forms import normalise, oriented_equations
+from checker.search.ordered_rewriting import ordered_rewrite
+from checker.search.term_order import TermOrder
 
 REWRITE_STEPS = 40
 """rewrites per normal form, beyond which that normal form is not offered"""
@@ -44,11 +46,12 @@ def _unit_equations(premises: Sequence[Clause]) -> list[int]:
 
 
 def demodulants(
-    premises: Sequence[Clause], limit: int = REWRITE_STEPS
+    premises: Sequence[Clause], limit: int = REWRITE_STEPS, order: TermOrder | None = None
 ) -> list[tuple[Clause, PrimitiveEvidence | Chain]]:
     """Distinct clauses the first premise rewrites to with the unit
     equations among the others, each with the evidence the kernel replayed:
-    the first single rewrite by an equation as written, the normal forms
+    the prover's rewrite by its term order ``order`` (when given), the
+    first single rewrite by an equation as written, the normal forms
     (equations as written, by size, reversed), then the other single
     rewrites, those by equations as written first."""
     if not premises:
@@ -70,6 +73,10 @@ def demodulants(
             seen.add(clause.literal_set)
             found.append((clause, evidence))
 
+    if order is not None:
+        ordered = ordered_rewrite(premises, 0, equations, order)
+        if ordered is not None:
+            offer(ordered)
     for step in singles[:1]:
         offer(step)
     for rules in orders:
