@@ -196,10 +196,15 @@ def _check(
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
     cheap_context = replace(context, limits=limits.cheap())
+    single_context = replace(context, limits=limits.single())
 
     def cheap_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(
             step, parents, cheap_context)
+
+    def single_step(step, parents):
+        return check_branch_step(step, parents, branches, statements, limits) or check_inference(
+            step, parents, single_context)
 
     def results_for(step) -> list[StepResult]:
         """The results a stated step contributes (its searches recorded, or
@@ -212,7 +217,7 @@ def _check(
         inner = nested.get(step.name, [])
         found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
         if not found and inner:
-            found = check_with_nested(step, inner, statements, check_step, cheap_step, order)
+            found = check_with_nested(step, inner, statements, check_step, cheap_step, order, single_step)
         elif not found and step.is_leaf:
             found = [check_branch_step(step, [], branches, statements, limits)
                      or check_leaf(step, problem, limits, context.symbols)]

@@ -30,13 +30,20 @@ from checker.search.unify import match_into
 EXAMPLES = 200
 """stated rewriting steps an order is scored on, at most"""
 
+TERM_SIZE = 1000
+"""subterm occurrences of a literal beyond which the search does not
+rewrite it (a wrong guess repeating a distributive law doubles a term at
+each step; a prover's own clauses stay far smaller)"""
 
-def innermost_positions(term: Term) -> list[tuple[Position, Term]]:
+
+def innermost_positions(term: Term, limit: int = TERM_SIZE) -> list[tuple[Position, Term]] | None:
     """The term's non-variable subterms below the root with their positions,
-    innermost first, left to right (iterative)."""
+    innermost first, left to right (iterative); None past ``limit``."""
     found: list[tuple[Position, Term]] = []
     stack: list[tuple[Position, Term, bool]] = [((), term, False)]
     while stack:
+        if len(found) + len(stack) > limit:
+            return None
         position, current, visited = stack.pop()
         if current.is_variable:
             continue
@@ -50,8 +57,16 @@ def innermost_positions(term: Term) -> list[tuple[Position, Term]]:
     return found
 
 
-def _visiting_order(atom: Term, order: TermOrder) -> list[tuple[Position, Term]]:
+def too_large(clause: Clause) -> bool:
+    """Whether a literal of the clause has more than ``TERM_SIZE`` subterm
+    occurrences."""
+    return any(innermost_positions(literal.atom) is None for literal in clause.literals)
+
+
+def _visiting_order(atom: Term, order: TermOrder) -> list[tuple[Position, Term]] | None:
     positions = innermost_positions(atom)
+    if positions is None:
+        return None
     if atom.symbol == EQUALITY and atom.arity == 2 and order.greater(atom.arguments[1], atom.arguments[0]):
         positions.sort(key=lambda item: item[0][0] != 2)  # stable: the greater (second) side first
     return positions
@@ -63,8 +78,11 @@ def ordered_rewrite(
     """The prover's rewrite of premise ``target`` by one of the unit
     equations (premise indices), or None when none applies."""
     clause = premises[target]
-    for number, literal in enumerate(clause.literals):
-        for position, subterm in _visiting_order(literal.atom, order):
+    visits = [_visiting_order(literal.atom, order) for literal in clause.literals]
+    if any(visit is None for visit in visits):
+        return None
+    for number, visit in enumerate(visits):
+        for position, subterm in visit:
             for index in equations:
                 left, right = premises[index].literals[0].atom.arguments
                 for left_to_right, (found, replacement) in ((True, (left, right)), (False, (right, left))):
@@ -77,6 +95,24 @@ def ordered_rewrite(
                     if order.greater(subterm, substitution(replacement)):
                         return Paramodulation(index, 0, left_to_right, target, number, position, substitution)
     return None
+
+
+def superposes(premises: Sequence[Clause], step: Paramodulation, order: TermOrder) -> bool:
+    """Whether a paramodulation is one a superposition prover makes: from
+    a side of the equation that is not smaller than the other, into a side
+    of an equational target literal that is not smaller than the other
+    (both after the substitutions), never at a variable (the ordering
+    restrictions of the superposition calculus, common practice)."""
+    first, second = (step.equation_substitution(side)
+                     for side in premises[step.equation].literals[step.equation_literal].atom.arguments)
+    found, replacement = (first, second) if step.left_to_right else (second, first)
+    if order.greater(replacement, found):
+        return False
+    target = premises[step.target].literals[step.target_literal].instance(step.target_substitution).atom
+    if target.symbol != EQUALITY or target.arity != 2:
+        return True
+    into, other = target.arguments[step.position[0] - 1], target.arguments[2 - step.position[0]]
+    return not order.greater(other, into)
 
 
 def _occurs(term: Term, clause: Clause) -> bool:
