@@ -23,8 +23,8 @@ from dataclasses import dataclass, replace
 
 from checker.formula_steps import as_formula
 from checker.kernel.clauses import Clause
-from checker.kernel.rules import Paramodulation, replay
 from checker.kernel.formulas import negation
+from checker.kernel.rules import Paramodulation, replay
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
 from checker.search.demodulation import describe_rewriting, each_demodulant, is_rewriting

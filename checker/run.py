@@ -21,7 +21,6 @@ from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
 from checker.leaves import check_leaf
 from checker.nested import check_with_nested
-from checker.prover_order import derivation_order
 from checker.notes import introduced_symbols, notes_on
 from checker.outcomes import (
     ACCEPTED,
@@ -35,6 +34,7 @@ from checker.outcomes import (
 from checker.parallel import map_in_processes
 from checker.plan import make_plan, with_cited_problem_statements
 from checker.progress import Progress
+from checker.prover_order import derivation_order
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference

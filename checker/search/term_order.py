@@ -32,7 +32,6 @@ from collections import Counter
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass, field
 
-from checker.kernel.clauses import Clause
 from checker.kernel.terms import Term, post_order, subterms
 
 Symbol = tuple[str, int]

@@ -10,12 +10,12 @@ precedence both are total on ground terms.
 
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
+from search_strategies import CONSTANTS, FUNCTIONS, VARIABLES, ground_terms, terms
 
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import application, subterms, variable, variables_of
 from checker.search.term_order import KnuthBendixOrder, LexicographicPathOrder, likely_orders
 from formats.tptp import parse_clause
-from search_strategies import CONSTANTS, FUNCTIONS, VARIABLES, ground_terms, terms
 
 SYMBOLS = [(name, 0) for name in CONSTANTS] + list(FUNCTIONS)
 
