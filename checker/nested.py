@@ -25,20 +25,23 @@ them, the record that states the bindings fails (``wrong_bindings``).
 from __future__ import annotations
 
 import itertools
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass, replace
 
 from checker.formula_steps import as_formula
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import negation
+from checker.kernel.rules import Paramodulation, replay
 from checker.kernel.substitution import Substitution
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, StepResult
 from checker.plan import Step
-from checker.search.demodulation import demodulants, describe_rewriting, is_rewriting
+from checker.search.demodulation import describe_rewriting, each_demodulant, is_rewriting
 from checker.search.evidence import candidates, describe
 from checker.search.findings import note_nested
+from checker.search.ordered_rewriting import everywhere, superposes, too_large
 from checker.search.reconstruct import from_stated_instances
 from checker.search.saturation import premise_references
+from checker.search.term_order import TermOrder
 from checker.statuses import weakest_status
 from formats.derivation import Parent, Statement
 
@@ -63,43 +66,76 @@ class Option:
 
 
 def _conclusions(
-    premises: list[Clause], rule: str, stated: Sequence[Substitution | None] = ()
-) -> list[tuple[Clause, str, object]]:
+    premises: list[Clause], rule: str, order: TermOrder | None, stated: Sequence[Substitution | None] = ()
+) -> Iterator[tuple[Clause, str, object]]:
     """Distinct conclusions of kernel-replayed inferences from ``premises``
-    (with their evidence): for a rewriting record its computed rewrites
-    first, then single inferences, those that use every premise first.
-    A premise with ``stated`` bindings is used only as its stated instance
-    (the evidence still names the premise itself)."""
-    stated = (list(stated) + [None] * len(premises))[: len(premises)]
-    searched = [p if given is None else p.instance(given) for p, given in zip(premises, stated)]
-    using_all: list[tuple[Clause, str, object]] = []
+    (with their evidence), computed as they are asked for: for a rewriting
+    record its computed rewrites first (the prover's by ``order`` first),
+    then single inferences, those that use every premise first, a
+    paramodulation replacing every occurrence of its term before the one
+    replacing a single occurrence.  A premise with ``stated`` bindings is
+    used only as its stated instance (the evidence still names the premise
+    itself)."""
+    if any(too_large(premise) for premise in premises):
+        return  # a wrong guess grown past any clause of the prover's
     others: list[tuple[Clause, str, object]] = []
     seen: set[frozenset] = set()
+    given = 0
+    stated = (list(stated) + [None] * len(premises))[: len(premises)]
+    searched = [p if bound is None else p.instance(bound) for p, bound in zip(premises, stated)]
     if is_rewriting(rule):
-        for computed, evidence in demodulants(searched):
+        for computed, evidence in each_demodulant(searched, order=order):
             seen.add(computed.literal_set)
-            using_all.append((computed, describe_rewriting(evidence), from_stated_instances(evidence, premises, stated)))
-    for attempt in itertools.islice(candidates(searched, rule), 20 * CANDIDATES_PER_STEP):
-        if attempt.computed.literal_set in seen:
-            continue
-        seen.add(attempt.computed.literal_set)
-        used = set(premise_references(attempt.evidence))
-        target = using_all if used == set(range(len(premises))) else others
-        evidence = from_stated_instances(attempt.evidence, premises, stated)
-        target.append((attempt.computed, describe(premises, evidence), evidence))
-    return (using_all + others)[:CANDIDATES_PER_STEP]
+            given += 1
+            evidence = from_stated_instances(evidence, premises, stated)
+            yield computed, describe_rewriting(evidence), evidence
+    attempts = itertools.islice(candidates(searched, rule), 20 * CANDIDATES_PER_STEP)
+    if order is not None and not is_rewriting(rule):
+        attempts = sorted(attempts, key=lambda attempt: not (
+            isinstance(attempt.evidence, Paramodulation) and superposes(searched, attempt.evidence, order)))
+    for attempt in attempts:
+        if given >= CANDIDATES_PER_STEP:
+            return
+        uses_all = set(premise_references(attempt.evidence)) == set(range(len(premises)))
+        how = describe(premises, from_stated_instances(attempt.evidence, premises, stated))
+        shared = everywhere(searched, attempt.evidence, attempt.computed) if (
+            isinstance(attempt.evidence, Paramodulation) and not is_rewriting(rule)) else None
+        computed = replay(searched, shared) if shared is not None else None
+        found = [(computed, shared, ", at every occurrence"), (attempt.computed, attempt.evidence, "")]
+        for content, evidence, suffix in found:
+            if isinstance(content, Clause) and content.literal_set not in seen:
+                seen.add(content.literal_set)
+                conclusion = (content, how + suffix, from_stated_instances(evidence, premises, stated))
+                if uses_all:
+                    given += 1
+                    yield conclusion
+                else:
+                    others.append(conclusion)
+    yield from others[:CANDIDATES_PER_STEP - given]
 
 
-def _round_robin(per_choice: list[list[Option]]) -> list[Option]:
+def _options(conclusions: Iterator[tuple[Clause, str, object]], picked: tuple) -> Iterator[Option]:
+    for content, how, evidence in conclusions:
+        yield Option(content, how, picked, evidence)
+
+
+def _round_robin(per_choice: list[Iterator[Option]]) -> list[Option]:
     """Distinct options, the likeliest of each choice of premises before
-    the second likeliest of any, up to the bound per step."""
+    the second likeliest of any, up to the bound per step (each choice's
+    options computed only as far as they are taken)."""
     gathered: dict[Clause, Option] = {}
-    for rank in itertools.count():
-        row = [found[rank] for found in per_choice if rank < len(found)]
-        if not row or len(gathered) >= CANDIDATES_PER_STEP:
-            break
-        for option in row:
+    remaining = list(per_choice)
+    while remaining and len(gathered) < CANDIDATES_PER_STEP:
+        still = []
+        for found in remaining:
+            option = next(found, None)
+            if option is None:
+                continue
+            still.append(found)
             gathered.setdefault(option.content, option)
+            if len(gathered) >= CANDIDATES_PER_STEP:
+                break
+        remaining = still
     return list(gathered.values())[:CANDIDATES_PER_STEP]
 
 
@@ -163,10 +199,14 @@ def check_with_nested(
     statements: dict[str, Statement],
     check_step: CheckStep,
     cheap_step: CheckStep | None = None,
+    order: TermOrder | None = None,
+    single_step: CheckStep | None = None,
 ) -> list[StepResult]:
     """Results for the nested steps (in order) and then the outer step.
     ``cheap_step`` checks a step with cheap bounds and no counter-model
-    searches; the combinations of options are tried with it first."""
+    searches, ``single_step`` with single inferences only; the
+    combinations of options are tried with them first, the latter first.
+    ``order`` is the term order the prover likely rewrote with."""
     assert outer.statement is not None
     negations, failure = _negations_of_conjectures(outer, nested, statements, check_step)
     if failure is not None:
@@ -181,24 +221,23 @@ def check_with_nested(
         if not nested:
             note_nested([_named(outer)])
             return [*settled, check_step(outer, [statements.get(name) for name in outer.parents])]
-        return [*settled, *check_with_nested(outer, nested, statements, check_step, cheap_step)]
+        return [*settled, *check_with_nested(outer, nested, statements, check_step, cheap_step, order, single_step)]
     options: dict[str, list[Option]] = {}
     for step in nested:  # parents first, as planned
-        per_choice: list[list[Option]] = []
+        per_choice: list[Iterator[Option]] = []
         for choice in _premise_choices(step, statements, options):
             premises = [content for content, _ in choice]
             if not all(isinstance(p, Clause) for p in premises):
                 continue
             picked = tuple((name, option) for name, (_, option) in zip(step.parents, choice) if option is not None)
-            per_choice.append([Option(content, how, picked, evidence)
-                               for content, how, evidence in _conclusions(premises, step.inference.rule, step.bindings)])
+            per_choice.append(_options(
+                _conclusions(premises, step.inference.rule, order, step.bindings), picked))
         options[step.name] = _round_robin(per_choice)
 
     by_name = {step.name: step for step in nested}
     choices = list(_premise_choices(outer, statements, options))
-    passes = [(check_step, choices[:FULL_COMBINATIONS])]
-    if cheap_step is not None:
-        passes.insert(0, (cheap_step, choices))
+    passes = [(check, choices) for check in (single_step, cheap_step) if check is not None]
+    passes.append((check_step, choices[:FULL_COMBINATIONS]))
     for check, tried in passes:
         for choice in tried:
             parents = [
@@ -213,6 +252,8 @@ def check_with_nested(
                 results = _settled(nested, picked)
                 note_nested([*(_stated(step, picked[step.name]) for step in nested), _named(outer)])
                 return [*results, result]
+        if check is single_step:
+            continue
         bases = len(tried) if check is cheap_step else FULL_COMBINATIONS
         through = _through_rewrites(outer, nested, statements, options, check, bases)
         if through is not None:

@@ -34,6 +34,7 @@ from checker.outcomes import (
 from checker.parallel import map_in_processes
 from checker.plan import make_plan, with_cited_problem_statements
 from checker.progress import Progress
+from checker.prover_order import derivation_order
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.splitting import with_splitting_details
 from checker.steps import StepContext, check_inference
@@ -190,15 +191,21 @@ def _check(
     nested = _nested_by_outer(plan)
     branches = trace_branches(plan, statements)
     shared = shared_answers(statements.values())
+    order = derivation_order(statements, problem.statements if problem is not None else None) if nested else None
 
     def check_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(step, parents, context)
 
     cheap_context = replace(context, limits=limits.cheap())
+    single_context = replace(context, limits=limits.single())
 
     def cheap_step(step, parents):
         return check_branch_step(step, parents, branches, statements, limits) or check_inference(
             step, parents, cheap_context)
+
+    def single_step(step, parents):
+        return check_branch_step(step, parents, branches, statements, limits) or check_inference(
+            step, parents, single_context)
 
     def results_for(step) -> list[StepResult]:
         """The results a stated step contributes (its searches recorded, or
@@ -211,7 +218,7 @@ def _check(
         inner = nested.get(step.name, [])
         found = [plan.faults[s.name] for s in (*inner, step) if s.name in plan.faults]
         if not found and inner:
-            found = check_with_nested(step, inner, statements, check_step, cheap_step)
+            found = check_with_nested(step, inner, statements, check_step, cheap_step, order, single_step)
         elif not found and step.is_leaf:
             found = [unlinked.get(step.name) or check_branch_step(step, [], branches, statements, limits)
                      or check_leaf(step, problem, limits, context.symbols)]

@@ -13,12 +13,14 @@ conclusion is what the kernel's replay of its evidence computes.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 
 from checker.kernel.clauses import Clause, is_equality
 from checker.kernel.rules import Chain, Paramodulation, PrimitiveEvidence, replay
 from checker.search.chains import rewrites
 from checker.search.normal_forms import normalise, oriented_equations
+from checker.search.ordered_rewriting import ordered_rewrite, too_large
+from checker.search.term_order import TermOrder
 
 REWRITE_STEPS = 40
 """rewrites per normal form, beyond which that normal form is not offered"""
@@ -44,41 +46,54 @@ def _unit_equations(premises: Sequence[Clause]) -> list[int]:
 
 
 def demodulants(
-    premises: Sequence[Clause], limit: int = REWRITE_STEPS
+    premises: Sequence[Clause], limit: int = REWRITE_STEPS, order: TermOrder | None = None
 ) -> list[tuple[Clause, PrimitiveEvidence | Chain]]:
+    """Every clause :func:`each_demodulant` yields."""
+    return list(each_demodulant(premises, limit, order))
+
+
+def each_demodulant(
+    premises: Sequence[Clause], limit: int = REWRITE_STEPS, order: TermOrder | None = None
+) -> Iterator[tuple[Clause, PrimitiveEvidence | Chain]]:
     """Distinct clauses the first premise rewrites to with the unit
-    equations among the others, each with the evidence the kernel replayed:
-    the first single rewrite by an equation as written, the normal forms
-    (equations as written, by size, reversed), then the other single
-    rewrites, those by equations as written first."""
-    if not premises:
-        return []
+    equations among the others, each with the evidence the kernel replayed,
+    computed as they are asked for: the prover's rewrite by its term order
+    ``order`` (when given), the first single rewrite by an equation as
+    written, the normal forms (equations as written, by size, reversed),
+    then the other single rewrites, those by equations as written first."""
+    if not premises or too_large(premises[0]):
+        return
     equations = _unit_equations(premises)
-    singles = [s for s in rewrites(premises, premises[0], 0) if s.equation in equations]
-    singles.sort(key=lambda step: not step.left_to_right)  # stable: outermost-leftmost within each
-    orders = (
-        [(index, True) for index in equations],
-        [(index, way) for index, way in oriented_equations(premises) if index in equations],
-        [(index, False) for index in equations],
-    )
-    found: list[tuple[Clause, PrimitiveEvidence | Chain]] = []
     seen: set[frozenset] = set()
 
-    def offer(evidence: PrimitiveEvidence | Chain) -> None:
-        clause = replay(list(premises), evidence)
+    def offered(evidence: PrimitiveEvidence | Chain | None) -> tuple[Clause, PrimitiveEvidence | Chain] | None:
+        clause = replay(list(premises), evidence) if evidence is not None else None
         if isinstance(clause, Clause) and clause.literal_set not in seen:
             seen.add(clause.literal_set)
-            found.append((clause, evidence))
+            return clause, evidence
+        return None
 
-    for step in singles[:1]:
-        offer(step)
-    for rules in orders:
-        normal = normalise(premises, rules, premises[0], 0, limit)
-        if normal is not None and len(normal[0]) > 1:
-            offer(Chain(tuple(normal[0])))
-    for step in singles[1:]:
-        offer(step)
-    return found
+    def candidates() -> Iterator[PrimitiveEvidence | Chain | None]:
+        if order is not None:
+            yield ordered_rewrite(premises, 0, equations, order)
+        singles = [s for s in rewrites(premises, premises[0], 0) if s.equation in equations]
+        singles.sort(key=lambda step: not step.left_to_right)  # stable: outermost-leftmost within each
+        yield from singles[:1]
+        orders = (
+            [(index, True) for index in equations],
+            [(index, way) for index, way in oriented_equations(premises) if index in equations],
+            [(index, False) for index in equations],
+        )
+        for rules in orders:
+            normal = normalise(premises, rules, premises[0], 0, limit)
+            if normal is not None and len(normal[0]) > 1:
+                yield Chain(tuple(normal[0]))
+        yield from singles[1:]
+
+    for evidence in candidates():
+        found = offered(evidence)
+        if found is not None:
+            yield found
 
 
 def describe_rewriting(evidence: PrimitiveEvidence | Chain) -> str:

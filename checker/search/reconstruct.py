@@ -89,6 +89,12 @@ class SearchLimits:
         )
 
 
+    def single(self) -> SearchLimits:
+        """Bounds for a first look that tries a single inference only (the
+        options computed for an unstated nested conclusion are usually
+        exactly the prover's, so one inference then shows the step)."""
+        return replace(self.cheap(), rewrite_steps=0, chain_seeds=0, saturation_clauses=0, saturation_given=0)
+
     def cheap(self) -> SearchLimits:
         """Bounds for a first look at a step that is likely to hold (the
         options tried for an unstated nested conclusion): the single
@@ -306,6 +312,8 @@ class _Search:
         return None
 
     def chain(self) -> Reconstruction | None:
+        if self.limits.rewrite_steps == 0:
+            return None
         seeds = [Seed(clause, None, index) for index, clause in enumerate(self.searched)] + self.seeds
         found = find_chain(
             self.searched, self.claimed, seeds, self.limits.rewrite_steps, self.limits.subsumption_nodes
@@ -323,6 +331,8 @@ class _Search:
         return Reconstruction(chain, theta, None, f"chain of {len(chain.steps)} inferences")
 
     def refutation(self) -> Reconstruction | None:
+        if self.limits.saturation_given == 0:
+            return None
         negation = negated_claim(self.premises, self.claimed)
         chain = refute(
             [*self.searched, *negation],
