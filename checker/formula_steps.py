@@ -374,8 +374,8 @@ def _equivalences_written_out(premise: Formula, limits: SearchLimits) -> Formula
     if not has_equivalence(premise):
         return premise
     written = without_equivalences(premise)
-    chain = find_entailment([premise], written, limits)
-    if chain is not None and check_entailment([premise], written, chain) is None:
+    evidence = find_consequence([premise], written, limits)  # a cover first: the clauses are the premise's
+    if evidence is not None and check_entailment([premise], written, evidence) is None:
         return written
     return premise
 
