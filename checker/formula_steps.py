@@ -45,6 +45,7 @@ from checker.search.miniscoping import miniscoped
 from checker.search.models import find_countermodel
 from checker.search.propositional import find_unit_entailment
 from checker.search.reconstruct import SearchLimits, reconstruct
+from checker.search.unfolding import find_unfolding
 from checker.search.witnesses import Witnessing, matching_witnesses, witness_readings
 from formats.derivation import Origin
 
@@ -79,6 +80,13 @@ def check_consequence(
     refutation; if neither is found, a kernel-confirmed counter-model."""
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
         return step_result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
+    unfolding = find_unfolding(premises, conclusion)  # definitions applied: cheap, so first
+    if unfolding is not None and check_entailment(premises, conclusion, unfolding) is None:
+        return step_result(
+            step, RECONSTRUCTED,
+            f"{what}: kernel unfolded the {len(unfolding.definitions)} definition(s) among the premises in a premise "
+            "and in the conclusion, and found them alpha-equivalent",
+        )
     length = _refutation_length(premises, conclusion, limits)
     if length == COVERED:
         return step_result(step, RECONSTRUCTED, f"{what}: {COVERED_MESSAGE}")

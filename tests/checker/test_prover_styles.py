@@ -155,3 +155,36 @@ def test_a_definition_applied_inside_an_equivalence_with_a_swapped_argument_is_r
     )
     assert report.verdict == REJECTED
     assert report.first_failure.name == "c_0_7"
+
+
+# Definitions applied inside equivalences (`apply_def` after definitional
+# clause form) are shown by unfolding the definitions among the premises in
+# a premise and the conclusion alike (checker.kernel.unfolding).
+
+POLICY = "access_policy_definitions_eprover_defcnf"
+
+
+def test_definitions_applied_are_shown_by_unfolding():
+    report = check(str(STYLES / POLICY / "proof.p"), str(STYLES / POLICY / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert "kernel unfolded the 3 definition(s)" in steps["c_0_12"].message
+
+
+def test_a_definition_applied_with_its_arguments_swapped_is_not_unfolded(tmp_path):
+    report, steps = _mutant(
+        tmp_path, POLICY,
+        "fof(c_0_12, plain, ![X2, X1]:(epred4_2(X1,X2)<=>?[X3, X4]:(epred2_4(X2,X3,X4,X1)&epred3_2(X4,X1)))",
+        "fof(c_0_12, plain, ![X2, X1]:(epred4_2(X1,X2)<=>?[X3, X4]:(epred2_4(X2,X3,X4,X1)&epred3_2(X3,X1)))",
+    )
+    assert report.verdict == REJECTED
+    assert report.first_failure.name == "c_0_12"
+    assert "unfolded" not in steps["c_0_12"].message
+
+
+def test_a_definition_applied_that_drops_a_conjunct_is_refuted(tmp_path):
+    report, steps = _mutant(
+        tmp_path, POLICY,
+        "(epred2_4(X2,X3,X4,X1)<=>(epred1_3(X4,X3,X1)&contains(X4,X2)))",
+        "(epred2_4(X2,X3,X4,X1)<=>epred1_3(X4,X3,X1))",
+    )
+    _rejected_at(report, steps, "c_0_13", "countermodel")
