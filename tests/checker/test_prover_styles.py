@@ -188,3 +188,13 @@ def test_a_definition_applied_that_drops_a_conjunct_is_refuted(tmp_path):
         "(epred2_4(X2,X3,X4,X1)<=>epred1_3(X4,X3,X1))",
     )
     _rejected_at(report, steps, "c_0_13", "countermodel")
+
+
+def test_the_trust_summary_lists_skolem_symbols_not_the_predicates_of_choice_axioms():
+    # An axiom of choice mentions the problem's `member/2` and `subset/2`;
+    # it introduces only its witnesses.
+    folder = STYLES / "subset_chain_saturation"
+    report = check(str(folder / "proof.p"), str(folder / "problem.p"))
+    assert [(i.symbol, i.step) for i in report.introduced] == [
+        ("sK0/2", "f9"), ("sK1/0", "f11"), ("sK2/0", "f11"), ("sK3/0", "f11"),
+    ]
