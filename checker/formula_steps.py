@@ -15,6 +15,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import replace
 
+from checker.definition_readings import confirmed_reading, negated_side_reading
 from checker.freshness import SymbolTable, describe_symbol, new_symbols
 from checker.kernel.clauses import Clause
 from checker.kernel.entailment import Cover, check_entailment
@@ -44,6 +45,7 @@ from checker.search.miniscoping import miniscoped
 from checker.search.models import find_countermodel
 from checker.search.propositional import find_unit_entailment
 from checker.search.reconstruct import SearchLimits, reconstruct
+from checker.search.unfolding import find_unfolding
 from checker.search.witnesses import Witnessing, matching_witnesses, witness_readings
 from formats.derivation import Origin
 
@@ -78,6 +80,13 @@ def check_consequence(
     refutation; if neither is found, a kernel-confirmed counter-model."""
     if any(alpha_equivalent(premise, conclusion) for premise in premises):
         return step_result(step, RECONSTRUCTED, f"{what}: alpha-equivalent to a premise")
+    unfolding = find_unfolding(premises, conclusion)  # definitions applied: cheap, so first
+    if unfolding is not None and check_entailment(premises, conclusion, unfolding) is None:
+        return step_result(
+            step, RECONSTRUCTED,
+            f"{what}: kernel unfolded the {len(unfolding.definitions)} definition(s) among the premises in a premise "
+            "and in the conclusion, and found them alpha-equivalent",
+        )
     length = _refutation_length(premises, conclusion, limits)
     if length == COVERED:
         return step_result(step, RECONSTRUCTED, f"{what}: {COVERED_MESSAGE}")
@@ -95,7 +104,27 @@ def check_consequence(
             f"counter-model: the premises are true and the conclusion false (claimed: {what})",
             ("reason: countermodel", *model),
         )
+    if limits.countermodel_domain:  # not a cheap first look at a guess
+        wider = replace(
+            limits,
+            saturation_clauses=limits.saturation_clauses * WIDER_SATURATION,
+            saturation_given=limits.saturation_given * WIDER_SATURATION,
+        )
+        length = _refutation_length(premises, conclusion, wider)
+        if length is not None and length != COVERED:
+            return step_result(
+                step, RECONSTRUCTED,
+                f"{what}: kernel replayed a refutation of premises and negated conclusion in "
+                f"{length} inference{'s' if length != 1 else ''} (found with {WIDER_SATURATION}x the saturation bounds)",
+            )
     return step_result(step, UNPROVEN, f"not shown within the search bounds (claimed: {what})")
+
+
+WIDER_SATURATION = 5
+"""A formula step that neither the refutation search nor the counter-model
+search settles gets one more refutation search with this many times the
+saturation bounds (definitions applied inside equivalences, distributions
+folded by names): counts, so the result is the same on every machine."""
 
 
 COVERED = 0
@@ -370,8 +399,8 @@ def _equivalences_written_out(premise: Formula, limits: SearchLimits) -> Formula
     if not has_equivalence(premise):
         return premise
     written = without_equivalences(premise)
-    chain = find_entailment([premise], written, limits)
-    if chain is not None and check_entailment([premise], written, chain) is None:
+    evidence = find_consequence([premise], written, limits)  # a cover first: the clauses are the premise's
+    if evidence is not None and check_entailment([premise], written, evidence) is None:
         return written
     return premise
 
@@ -471,21 +500,31 @@ def check_definition_leaf(step: Step, table: SymbolTable) -> StepResult:
     statement = step.statement
     assert statement is not None
     formula = as_formula(statement.content)
-    body = formula
-    while body.connective == FORALL:
-        body = body.arguments[0]
-    sides = [(a.atom.symbol, a.atom.arity) for a in body.arguments if a.atom is not None and a.atom.symbol != "="]
-    candidates = sorted(dict.fromkeys(sides), key=lambda symbol: symbol in table.problem)
     failure = Failure("not_a_definition", f"`{formula}` has no side that is a predicate applied to variables")
-    for number, symbol in enumerate(candidates):
-        shape = check_definition(formula, symbol)
-        if shape is None:
-            not_fresh = table.freshness_failure(step.name, {symbol})
-            if not_fresh is None:
-                return step_result(step, RECONSTRUCTED, f"defines fresh symbol `{describe_symbol(symbol)}`")
-            shape = Failure("not_fresh", not_fresh)
-        if number == 0:
-            failure = shape
+    readings = [(formula, "")]
+    if negated_side_reading(formula) is not None:  # `~ e <=> F` is `e <=> ~ F`
+        readings.append((None, ""))
+    first = True
+    for reading, read in readings:
+        if reading is None:
+            reading = confirmed_reading(formula)
+            if reading is None:
+                break
+            read = f" (read as `{reading}`)"
+        body = reading
+        while body.connective == FORALL:
+            body = body.arguments[0]
+        sides = [(a.atom.symbol, a.atom.arity) for a in body.arguments if a.atom is not None and a.atom.symbol != "="]
+        candidates = sorted(dict.fromkeys(sides), key=lambda symbol: symbol in table.problem)
+        for symbol in candidates:
+            shape = check_definition(reading, symbol)
+            if shape is None:
+                not_fresh = table.freshness_failure(step.name, {symbol})
+                if not_fresh is None:
+                    return step_result(step, RECONSTRUCTED, f"defines fresh symbol `{describe_symbol(symbol)}`{read}")
+                shape = Failure("not_fresh", not_fresh)
+            if first:
+                failure, first = shape, False
     return step_result(step, FAILED, failure.message, (f"reason: {failure.reason}",))
 
 

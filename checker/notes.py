@@ -78,11 +78,25 @@ def notes_on(plan: Plan) -> tuple[Note, ...]:
     return tuple(notes)
 
 
+def _is_introduced(step) -> bool:
+    source = step.statement.source if step.statement is not None else None
+    return step.is_leaf and getattr(source, "kind", None) == "introduced"
+
+
 def introduced_symbols(symbols: SymbolTable) -> tuple[Introduction, ...]:
     """Each symbol the derivation introduces, with the first step that
-    introduces it, in checking order (ties by symbol)."""
+    introduces it, in checking order (ties by symbol).  An axiom of choice
+    or a definition also mentions symbols it does not introduce (the
+    predicates of its formula): a symbol the problem or a leaf taken from
+    it has is left out when only such introduced leaves list it."""
+    given = set(symbols.problem)
+    for name, step in symbols.planned.items():
+        if step.is_leaf and not _is_introduced(step):
+            given |= symbols.steps.get(name, set())
     found = []
     for symbol, steps in symbols.introducers.items():
+        if symbol in given and all(_is_introduced(symbols.planned[name]) for name in steps if name in symbols.planned):
+            continue
         first = min(steps, key=lambda name: symbols.order.get(name, len(symbols.order)))
         found.append((symbols.order.get(first, len(symbols.order)), describe_symbol(symbol), first))
     return tuple(

@@ -28,6 +28,7 @@ from checker.kernel.formulas import Formula, formula_of_clause, negation, univer
 from checker.kernel.rules import Chain, check_conclusion, replay
 from checker.kernel.substitution import Substitution
 from checker.kernel.terms import Term, application, post_order
+from checker.kernel.unfolding import Unfolding, check_unfolding
 
 
 def _closed(statement: Clause | Formula) -> Formula:
@@ -117,13 +118,16 @@ def check_cover(premises: Sequence[Clause | Formula], conclusion: Clause | Formu
 
 
 def check_entailment(
-    premises: Sequence[Clause | Formula], conclusion: Clause | Formula, refutation: Chain | Cover
+    premises: Sequence[Clause | Formula], conclusion: Clause | Formula, refutation: Chain | Cover | Unfolding
 ) -> Failure | None:
     """None when ``refutation`` derives the empty clause from
-    :func:`entailment_clauses` of the premises and conclusion, or is a
-    cover of the conclusion's clauses by the premises'."""
+    :func:`entailment_clauses` of the premises and conclusion, is a cover
+    of the conclusion's clauses by the premises', or an unfolding of the
+    definitions among the premises (checker.kernel.unfolding)."""
     if isinstance(refutation, Cover):
         return check_cover(premises, conclusion, refutation)
+    if isinstance(refutation, Unfolding):
+        return check_unfolding(premises, conclusion, refutation)
     computed = replay(entailment_clauses(premises, conclusion), refutation)
     if isinstance(computed, Failure):
         return computed

@@ -12,7 +12,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from checker.kernel.entailment import Cover, entailment_clauses
+from checker.kernel.entailment import Cover, entailment_clausification
 from checker.kernel.formulas import Formula
 from checker.kernel.rules import Chain
 from checker.search.findings import REFUTATION, checked_refutation, hook
@@ -30,8 +30,15 @@ from checker.search.saturation import refute
 )
 def find_entailment(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> Chain | None:
     """A refutation of clausify(premises ∧ ¬conclusion), or None within the bounds."""
-    clauses = entailment_clauses(list(premises), conclusion)
-    return refute(clauses, limits.saturation_clauses, limits.saturation_given, limits.subsumption_nodes)
+    clausification = entailment_clausification(list(premises), conclusion)
+    clauses = clausification.clauses
+    claim = [index for index, source in enumerate(clausification.sources) if source == len(premises)]
+    bounds = (limits.saturation_clauses, limits.saturation_given, limits.subsumption_nodes)
+    if 0 < len(claim) < len(clauses):
+        found = refute(clauses, *bounds, support=claim)
+        if found is not None:
+            return found
+    return refute(clauses, *bounds)
 
 
 def find_consequence(premises: Sequence[Formula], conclusion: Formula, limits: SearchLimits) -> Chain | Cover | None:

@@ -133,7 +133,7 @@ def test_a_changed_binding_in_inline_evidence_is_rejected_at_that_step(tmp_path)
 
 
 def test_a_changed_literal_index_in_a_refutation_is_rejected_at_that_step(tmp_path):
-    path, records = _elaborated(tmp_path, "badge_staff_equivalence_skolemize")
+    path, records = _elaborated(tmp_path, "harbour_pilot_roster")
     record, finding = next(
         (r, f) for r, f in _findings(records, "refutation") if any(s["rule"] == "resolution" for s in f["steps"])
     )

@@ -35,6 +35,8 @@ def _derivations() -> list[Path]:
     for path in sorted(FIXTURES.rglob("*")):
         if "prover_corpus" in path.parts:
             continue  # minutes each: tests/checker/test_prover_corpus.py and bench/bench_prover_corpus.py
+        if "styles" in path.parts:
+            continue  # each checked against its problem, no step refuted: tests/checker/test_prover_styles.py
 
         problem = path.name == "problem.p" or path.name.endswith("_problem.p")
         if path.suffix == ".jsonl" or (path.suffix == ".p" and not problem):
