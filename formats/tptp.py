@@ -50,6 +50,7 @@ from formats.derivation import (
     UnreadableInput,
 )
 from formats.limits import current_limits, too_deep_at
+from formats.tptp_plain import PlainReader
 from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
 from formats.tptp_types import (
     Call,
@@ -634,6 +635,9 @@ def _parse(text: str, start: str, file: str, line: int, column: int, whole: str 
         at_column = deep - (text.rfind("\n", 0, deep) + 1) + 1
         message = f"brackets nested more than {limits.depth} deep; {limits.describe('depth')}"
         raise _unreadable(message, at_line, at_column, text, file, line, column, whole)
+    plain = _plain(text, start)
+    if plain is not None:
+        return plain
     try:
         return _PARSER.parse(text, start=start)
     except (UnexpectedCharacters, UnexpectedToken) as error:
@@ -643,6 +647,24 @@ def _parse(text: str, start: str, file: str, line: int, column: int, whole: str 
     except _Misread as error:
         message, at_line, at_column = error.message, error.token.line, error.token.column
     raise _unreadable(message, at_line, at_column, text, file, line, column, whole)
+
+
+_PLAIN = PlainReader(_Word, _Function, _List, _Colon, _Data, ROLES)
+
+
+def _plain(text: str, start: str):
+    """What the grammar would read from ``text``, if it is of the plain shape
+    formats/tptp_plain.py reads on its own (most clauses and terms); else None."""
+    if start == "cnf_formula":
+        return _PLAIN.clause(text)
+    if start == "fof_term":
+        return _PLAIN.term(text)
+    if start == "tptp_input":
+        read = _PLAIN.cnf_statement(text)
+        if read is not None:
+            name, role, clause, source = read
+            return _Annotated("cnf", name, role, clause, None if source is None else _source(source))
+    return None
 
 
 _TYPED_HINT = (

@@ -1,0 +1,315 @@
+"""A quick reader for the plain shape of TPTP text, tried before the grammar.
+
+Most of what a derivation says is plain: cnf statements whose clause is a
+disjunction of literals over terms, with an inference record or a file
+source, and terms and clauses written alone (in a native certificate).
+The LALR parser spends some 10 microseconds a token on them; this reader
+cuts the text into tokens with one regular expression and reads the plain
+shape straight into kernel objects.
+
+It is no second grammar.  It recognises a strict subset of the language
+and answers ``None`` for anything else -- other statements, comments,
+numbers other than plain integers, distinct objects, quantified clauses,
+``$fof`` data, anything past an input limit, and every error -- and the
+caller then reads the text with the grammar (formats/tptp.lark), which
+stays the reference for what the language means and the only source of
+error messages.  Where it answers, it builds exactly what the grammar's
+transformer builds; tests compare the two on generated text and on every
+fixture.
+
+Token shapes are those of the grammar's terminals (<lower_word>,
+<upper_word>, <dollar_word>, <dollar_dollar_word>, <single_quoted>,
+<integer>).  Reading is iterative, so nesting depth costs no recursion.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Callable, Collection
+
+from checker.kernel.clauses import EQUALITY, Clause, Literal
+from checker.kernel.terms import Term, application, variable
+from formats.limits import current_limits
+
+# One token per match, after optional whitespace: a word of the grammar's
+# terminal shapes, an integer not continued as another number, or a mark.
+# Any other character lands in the second group and ends the quick reading.
+_TOKEN = re.compile(
+    r"[ \t\r\n\f\v]*(?:"
+    r"([a-z][a-zA-Z0-9_]*|[A-Z][a-zA-Z0-9_]*|\$\$?[a-z][a-zA-Z0-9_]*"
+    r"|'(?:[ -&(-\[\]-~]|\\['\\])+'"
+    r"|(?:0|[1-9][0-9]*)(?![0-9a-zA-Z_./])"
+    r"|!=|[(),|~=\[\]:.])"
+    r"|([^ \t\r\n\f\v]))"
+)
+_LOWER_WORD = re.compile(r"[a-z][a-zA-Z0-9_]*")
+_LOWER = frozenset("abcdefghijklmnopqrstuvwxyz")
+_UPPER = frozenset("ABCDEFGHIJKLMNOPQRSTUVWXYZ")
+_DIGITS = frozenset("0123456789")
+_SYMBOL_START = _LOWER | _DIGITS | {"$", "'"}
+_TRUE_ATOM = application("$true")
+_FALSE_ATOM = application("$false")
+
+
+class _NotPlain(Exception):
+    """The text is not of the plain shape (or not well formed): leave it
+    to the grammar."""
+
+
+def _tokens(text: str) -> list[str | None] | None:
+    """The tokens of ``text`` and a closing ``None``; None if some character
+    is no token here or some word is longer than the name-length limit."""
+    found = _TOKEN.findall(text)
+    limit = current_limits().name_length
+    tokens: list[str | None] = []
+    for token, other in found:
+        if other or len(token) > limit:
+            return None
+        tokens.append(token)
+    tokens.append(None)
+    return tokens
+
+
+def _symbol(token: str) -> str:
+    """A function or predicate symbol as the grammar's transformer names it:
+    a single-quoted word loses its quotes when it needs none."""
+    if token[0] == "'" and _LOWER_WORD.fullmatch(token, 1, len(token) - 1):
+        return token[1:-1]
+    return token
+
+
+class _Reader:
+    """One text's tokens, read from left to right."""
+
+    __slots__ = ("tokens", "at")
+
+    def __init__(self, tokens: list[str | None]):
+        self.tokens = tokens
+        self.at = 0
+
+    def expect(self, mark: str) -> None:
+        if self.tokens[self.at] != mark:
+            raise _NotPlain
+        self.at += 1
+
+    def end(self) -> None:
+        if self.tokens[self.at] is not None:
+            raise _NotPlain
+
+    def term(self) -> Term:
+        """<fof_term>: a variable, or a plain, defined or system term."""
+        tokens = self.tokens
+        pending: list[tuple[str, list[Term]]] = []  # function terms whose arguments are being read
+        while True:
+            token = tokens[self.at]
+            self.at += 1
+            if token is None:
+                raise _NotPlain
+            first = token[0]
+            if first in _UPPER:
+                term = variable(token)
+            elif first in _SYMBOL_START:
+                if tokens[self.at] == "(" and first not in _DIGITS:
+                    self.at += 1
+                    pending.append((_symbol(token), []))
+                    continue
+                term = application(_symbol(token))
+            else:
+                raise _NotPlain
+            while pending:
+                symbol, arguments = pending[-1]
+                arguments.append(term)
+                token = tokens[self.at]
+                self.at += 1
+                if token == ",":
+                    break
+                if token != ")":
+                    raise _NotPlain
+                pending.pop()
+                term = application(symbol, tuple(arguments))
+            else:
+                return term
+
+    def literal(self) -> Literal | None:
+        """<literal>; None for one the transformer drops ($false, ~$true)."""
+        tokens = self.tokens
+        positive = tokens[self.at] != "~"
+        if not positive:
+            self.at += 1
+        left = self.term()
+        relation = tokens[self.at]
+        if relation == "=" or (relation == "!=" and positive):
+            self.at += 1
+            atom = application(EQUALITY, (left, self.term()))
+            return Literal(relation == "=" and positive, atom)
+        if left.is_variable or left.symbol[0] in _DIGITS:
+            raise _NotPlain  # a variable or a number is no atom
+        if atom_dropped(positive, left):
+            return None
+        return Literal(positive, left)
+
+    def clause(self) -> Clause:
+        """<cnf_formula> without a quantifier: a disjunction of literals,
+        bracketed or not."""
+        tokens = self.tokens
+        bracketed = tokens[self.at] == "("
+        if bracketed:
+            self.at += 1
+        limit = current_limits().literals
+        literals: list[Literal] = []
+        while True:
+            literal = self.literal()
+            if literal is not None:
+                literals.append(literal)
+                if len(literals) > limit:
+                    raise _NotPlain
+            if tokens[self.at] != "|":
+                break
+            self.at += 1
+        if bracketed:
+            self.expect(")")
+        return Clause(literals)
+
+
+def atom_dropped(positive: bool, atom: Term) -> bool:
+    """Whether the transformer drops this literal from a clause."""
+    return atom is (_FALSE_ATOM if positive else _TRUE_ATOM)
+
+
+class PlainReader:
+    """The quick reader, building annotations with the general-term
+    classes of the grammar's transformer (given, so that both build the
+    same objects)."""
+
+    def __init__(
+        self,
+        word: Callable[..., object],
+        function: Callable[[str, tuple], object],
+        listing: Callable[[tuple], object],
+        colon: Callable[[object, object], object],
+        data: Callable[[str, object], object],
+        roles: Collection[str],
+    ):
+        self._word, self._function, self._list = word, function, listing
+        self._colon, self._data, self._roles = colon, data, roles
+
+    def term(self, text: str) -> Term | None:
+        """The term ``text`` spells, or None if it is not plain."""
+        tokens = _tokens(text)
+        if tokens is None:
+            return None
+        reader = _Reader(tokens)
+        try:
+            term = reader.term()
+            reader.end()
+        except _NotPlain:
+            return None
+        return term
+
+    def clause(self, text: str) -> Clause | None:
+        """The clause ``text`` spells (cnf syntax, no wrapper), or None."""
+        tokens = _tokens(text)
+        if tokens is None:
+            return None
+        reader = _Reader(tokens)
+        try:
+            clause = reader.clause()
+            reader.end()
+        except _NotPlain:
+            return None
+        return clause
+
+    def cnf_statement(self, text: str) -> tuple[str, str, Clause, object | None] | None:
+        """Name, role, clause and source (a general term, or None) of a
+        plain ``cnf(...).`` statement, or None."""
+        if not text.startswith("cnf"):
+            return None
+        tokens = _tokens(text)
+        if tokens is None or tokens[0] != "cnf":
+            return None
+        reader = _Reader(tokens)
+        reader.at = 1
+        try:
+            reader.expect("(")
+            name = tokens[reader.at]
+            if name is None or not (name[0] in _LOWER or name[0] in _DIGITS or name[0] == "'"):
+                raise _NotPlain
+            reader.at += 1
+            reader.expect(",")
+            role = tokens[reader.at]
+            if role not in self._roles:
+                raise _NotPlain
+            reader.at += 1
+            reader.expect(",")
+            clause = reader.clause()
+            source = None
+            if tokens[reader.at] == ",":
+                reader.at += 1
+                source = self._general(reader)
+                if tokens[reader.at] == ",":
+                    reader.at += 1
+                    self._general(reader)  # useful info: read, and not kept
+            reader.expect(")")
+            reader.expect(".")
+            reader.end()
+        except _NotPlain:
+            return None
+        return _symbol(name), role, clause, source
+
+    def _general(self, reader: _Reader) -> object:
+        """<general_term>: words, variables, integers, functions, lists,
+        ``data : term`` and ``$fot``/``$cnf`` data."""
+        tokens = reader.tokens
+        pending: list[list] = []  # ["(", name, items], ["[", items] or [":", data]
+        while True:
+            token = tokens[reader.at]
+            reader.at += 1
+            if token is None:
+                raise _NotPlain
+            first = token[0]
+            is_data = True
+            if token == "[":
+                if tokens[reader.at] == "]":
+                    reader.at += 1
+                    value, is_data = self._list(()), False
+                else:
+                    pending.append(["[", []])
+                    continue
+            elif first in _LOWER or first == "'":
+                if tokens[reader.at] == "(":
+                    reader.at += 1
+                    pending.append(["(", _symbol(token), []])
+                    continue
+                value = self._word(_symbol(token))
+            elif first in _UPPER:
+                value = self._word(token, is_variable=True)
+            elif first in _DIGITS:
+                value = self._word(token)
+            elif token in ("$fot", "$cnf"):
+                reader.expect("(")
+                value = self._data(token, reader.term() if token == "$fot" else reader.clause())
+                reader.expect(")")
+            else:
+                raise _NotPlain
+            while True:
+                if is_data and tokens[reader.at] == ":":
+                    reader.at += 1
+                    pending.append([":", value])
+                    break
+                while pending and pending[-1][0] == ":":
+                    value = self._colon(pending.pop()[1], value)
+                if not pending:
+                    return value
+                frame = pending[-1]
+                frame[-1].append(value)
+                token = tokens[reader.at]
+                reader.at += 1
+                if token == ",":
+                    break
+                if frame[0] == "(" and token == ")":
+                    value, is_data = self._function(frame[1], tuple(frame[2])), True
+                elif frame[0] == "[" and token == "]":
+                    value, is_data = self._list(tuple(frame[1])), False
+                else:
+                    raise _NotPlain
+                pending.pop()
