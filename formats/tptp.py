@@ -654,16 +654,19 @@ _PLAIN = PlainReader(_Word, _Function, _List, _Colon, _Data, ROLES)
 
 def _plain(text: str, start: str):
     """What the grammar would read from ``text``, if it is of the plain shape
-    formats/tptp_plain.py reads on its own (most clauses and terms); else None."""
+    formats/tptp_plain.py reads on its own (most statements, clauses,
+    formulas and terms); else None."""
     if start == "cnf_formula":
         return _PLAIN.clause(text)
     if start == "fof_term":
         return _PLAIN.term(text)
+    if start == "fof_formula":
+        return _PLAIN.formula(text)
     if start == "tptp_input":
-        read = _PLAIN.cnf_statement(text)
+        read = _PLAIN.statement(text)
         if read is not None:
-            name, role, clause, source = read
-            return _Annotated("cnf", name, role, clause, None if source is None else _source(source))
+            language, name, role, content, source = read
+            return _Annotated(language, name, role, content, None if source is None else _source(source))
     return None
 
 

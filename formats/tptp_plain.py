@@ -1,16 +1,17 @@
 """A quick reader for the plain shape of TPTP text, tried before the grammar.
 
-Most of what a derivation says is plain: cnf statements whose clause is a
-disjunction of literals over terms, with an inference record or a file
-source, and terms and clauses written alone (in a native certificate).
+Most of what a derivation says is plain: cnf and fof statements over
+ordinary words, with an inference record or a file source, and terms,
+clauses and formulas written alone (in a native certificate).
 The LALR parser spends some 10 microseconds a token on them; this reader
 cuts the text into tokens with one regular expression and reads the plain
 shape straight into kernel objects.
 
 It is no second grammar.  It recognises a strict subset of the language
-and answers ``None`` for anything else -- other statements, comments,
-numbers other than plain integers, distinct objects, quantified clauses,
-``$fof`` data, anything past an input limit, and every error -- and the
+and answers ``None`` for anything else -- typed statements and includes,
+comments, numbers other than plain integers, distinct objects, quantified
+clauses, formulas nested past a hundred levels, anything past an input
+limit, and every error -- and the
 caller then reads the text with the grammar (formats/tptp.lark), which
 stays the reference for what the language means and the only source of
 error messages.  Where it answers, it builds exactly what the grammar's
@@ -28,6 +29,7 @@ import re
 from collections.abc import Callable, Collection
 
 from checker.kernel.clauses import EQUALITY, Clause, Literal
+from checker.kernel.formulas import FALSUM, IMPLIES, VERUM, Formula, atomic, binary, negation, quantified
 from checker.kernel.terms import Term, application, variable
 from formats.limits import current_limits
 
@@ -39,7 +41,7 @@ _TOKEN = re.compile(
     r"([a-z][a-zA-Z0-9_]*|[A-Z][a-zA-Z0-9_]*|\$\$?[a-z][a-zA-Z0-9_]*"
     r"|'(?:[ -&(-\[\]-~]|\\['\\])+'"
     r"|(?:0|[1-9][0-9]*)(?![0-9a-zA-Z_./])"
-    r"|!=|[(),|~=\[\]:.])"
+    r"|<=>|<~>|=>|<=|~\||~&|!=|[(),|&~=\[\]:.!?])"
     r"|([^ \t\r\n\f\v]))"
 )
 _LOWER_WORD = re.compile(r"[a-z][a-zA-Z0-9_]*")
@@ -49,6 +51,10 @@ _DIGITS = frozenset("0123456789")
 _SYMBOL_START = _LOWER | _DIGITS | {"$", "'"}
 _TRUE_ATOM = application("$true")
 _FALSE_ATOM = application("$false")
+_NONASSOC = frozenset(("<=>", "=>", "<=", "<~>", "~|", "~&"))
+_FORMULA_DEPTH = 100
+"""formulas bracketed, negated or quantified deeper than this are left to
+the grammar, so that reading them here may recurse"""
 
 
 class _NotPlain(Exception):
@@ -171,6 +177,67 @@ class _Reader:
         return Clause(literals)
 
 
+    def formula(self, depth: int = 0) -> Formula:
+        """<fof_logic_formula>: a unit formula, two joined by a
+        non-associative connective, or a chain of ``|`` or of ``&``
+        (grouped to the left, as the grammar's left-recursive rules do)."""
+        tokens = self.tokens
+        first = self.unit(depth)
+        connective = tokens[self.at]
+        if connective in _NONASSOC:
+            self.at += 1
+            second = self.unit(depth)
+            return binary(IMPLIES, second, first) if connective == "<=" else binary(connective, first, second)
+        if connective == "|" or connective == "&":
+            while tokens[self.at] == connective:
+                self.at += 1
+                first = binary(connective, first, self.unit(depth))
+        return first
+
+    def unit(self, depth: int) -> Formula:
+        """<fof_unit_formula>: negated, quantified, bracketed or atomic."""
+        if depth > _FORMULA_DEPTH:
+            raise _NotPlain
+        tokens = self.tokens
+        token = tokens[self.at]
+        if token == "~":
+            self.at += 1
+            return negation(self.unit(depth + 1))
+        if token == "!" or token == "?":
+            self.at += 1
+            self.expect("[")
+            variables = []
+            while True:
+                name = tokens[self.at]
+                if name is None or name[0] not in _UPPER:
+                    raise _NotPlain
+                variables.append(variable(name))
+                separator = tokens[self.at + 1]
+                self.at += 2
+                if separator == "]":
+                    break
+                if separator != ",":
+                    raise _NotPlain
+            self.expect(":")
+            return quantified(token, tuple(variables), self.unit(depth + 1))
+        if token == "(":
+            self.at += 1
+            inner = self.formula(depth + 1)
+            self.expect(")")
+            return inner
+        left = self.term()
+        relation = tokens[self.at]
+        if relation == "=" or relation == "!=":
+            self.at += 1
+            equation = atomic(application(EQUALITY, (left, self.term())))
+            return equation if relation == "=" else negation(equation)
+        if left.is_variable or left.symbol[0] in _DIGITS:
+            raise _NotPlain  # a variable or a number is no atom
+        if left is _TRUE_ATOM:
+            return VERUM
+        return FALSUM if left is _FALSE_ATOM else atomic(left)
+
+
 def atom_dropped(positive: bool, atom: Term) -> bool:
     """Whether the transformer drops this literal from a clause."""
     return atom is (_FALSE_ATOM if positive else _TRUE_ATOM)
@@ -219,13 +286,27 @@ class PlainReader:
             return None
         return clause
 
-    def cnf_statement(self, text: str) -> tuple[str, str, Clause, object | None] | None:
-        """Name, role, clause and source (a general term, or None) of a
-        plain ``cnf(...).`` statement, or None."""
-        if not text.startswith("cnf"):
+    def formula(self, text: str) -> Formula | None:
+        """The formula ``text`` spells (fof syntax, no wrapper), or None."""
+        tokens = _tokens(text)
+        if tokens is None:
+            return None
+        reader = _Reader(tokens)
+        try:
+            formula = reader.formula()
+            reader.end()
+        except _NotPlain:
+            return None
+        return formula
+
+    def statement(self, text: str) -> tuple[str, str, str, Clause | Formula, object | None] | None:
+        """Language, name, role, content and source (a general term, or
+        None) of a plain ``cnf(...).`` or ``fof(...).`` statement, or None."""
+        language = text[:3]
+        if language != "cnf" and language != "fof":
             return None
         tokens = _tokens(text)
-        if tokens is None or tokens[0] != "cnf":
+        if tokens is None or tokens[0] != language:
             return None
         reader = _Reader(tokens)
         reader.at = 1
@@ -241,7 +322,7 @@ class PlainReader:
                 raise _NotPlain
             reader.at += 1
             reader.expect(",")
-            clause = reader.clause()
+            content = reader.clause() if language == "cnf" else reader.formula()
             source = None
             if tokens[reader.at] == ",":
                 reader.at += 1
@@ -254,11 +335,11 @@ class PlainReader:
             reader.end()
         except _NotPlain:
             return None
-        return _symbol(name), role, clause, source
+        return language, _symbol(name), role, content, source
 
     def _general(self, reader: _Reader) -> object:
         """<general_term>: words, variables, integers, functions, lists,
-        ``data : term`` and ``$fot``/``$cnf`` data."""
+        ``data : term`` and formula data (``$fot``, ``$cnf``, ``$fof``)."""
         tokens = reader.tokens
         pending: list[list] = []  # ["(", name, items], ["[", items] or [":", data]
         while True:
@@ -285,9 +366,9 @@ class PlainReader:
                 value = self._word(token, is_variable=True)
             elif first in _DIGITS:
                 value = self._word(token)
-            elif token in ("$fot", "$cnf"):
+            elif token in _READ_DATA:
                 reader.expect("(")
-                value = self._data(token, reader.term() if token == "$fot" else reader.clause())
+                value = self._data(token, _READ_DATA[token](reader))
                 reader.expect(")")
             else:
                 raise _NotPlain
@@ -313,3 +394,6 @@ class PlainReader:
                 else:
                     raise _NotPlain
                 pending.pop()
+
+
+_READ_DATA: dict[str, Callable[[_Reader], object]] = {"$fot": _Reader.term, "$cnf": _Reader.clause, "$fof": _Reader.formula}

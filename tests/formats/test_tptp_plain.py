@@ -103,13 +103,35 @@ def clauses(symbols):
     )
 
 
+def formulas(symbols):
+    """<fof_logic_formula>: binary (non-associative, or chains of | and of
+    &), unary, quantified, bracketed or atomic; bracketed or not at random,
+    so that many are refused."""
+    connective = st.sampled_from(["&", "|", "=>", "<=", "<=>", "<~>", "~|", "~&"])
+    quantifier = st.builds(lambda q, names: f"{q} [{', '.join(names)}] :", st.sampled_from(["!", "?"]),
+                           st.lists(variables, min_size=1, max_size=2))
+    return st.recursive(
+        literals(symbols),
+        lambda inner: st.one_of(
+            st.builds(lambda a, c, b, wrap: f"({a} {c} {b})" if wrap else f"{a} {c} {b}", inner, connective, inner,
+                      st.booleans()),
+            st.builds(lambda items, c: "(" + f" {c} ".join(items) + ")", st.lists(inner, min_size=2, max_size=4),
+                      st.sampled_from(["&", "|"])),
+            inner.map(lambda a: f"~ {a}"),
+            inner.map(lambda a: f"~({a})"),
+            st.builds(lambda q, a, wrap: f"{q} ({a})" if wrap else f"{q} {a}", quantifier, inner, st.booleans()),
+        ),
+        max_leaves=6,
+    )
+
+
 def general_terms(symbols):
     """<general_term>: data, ``data : term``, lists; formula data."""
     leaves = st.one_of(
         symbols, variables, st.sampled_from(["[]", "42", '"note"', "inference", "status(thm)"]),
         terms(symbols).map(lambda t: f"$fot({t})"),
         clauses(symbols).map(lambda c: f"$cnf({c})"),
-        st.just("$fof(p & q)"),
+        formulas(symbols).map(lambda f: f"$fof({f})"),
     )
     return st.recursive(
         leaves,
@@ -125,13 +147,15 @@ def general_terms(symbols):
 
 @st.composite
 def statements(draw, symbols):
-    """<cnf_annotated>, with zero, one or two annotations."""
+    """<cnf_annotated> or <fof_annotated>, with zero, one or two annotations."""
     name = draw(st.one_of(st.sampled_from(["s1", "c_0_7", "42", "'step 3'", "'s4'", "X", "-1", "$s"]), symbols))
     role = draw(st.sampled_from(["axiom", "plain", "negated_conjecture", "plain_ish", "'plain'"]))
     annotations = draw(st.lists(general_terms(symbols), max_size=2))
     annotation = "".join(f", {item}" for item in annotations)
     gap = draw(spaces)
-    return f"cnf{gap}({name},{gap}{role}, {draw(clauses(symbols))}{annotation}){gap}."
+    if draw(st.booleans()):
+        return f"cnf{gap}({name},{gap}{role}, {draw(clauses(symbols))}{annotation}){gap}."
+    return f"fof{gap}({name},{gap}{role}, {draw(formulas(symbols))}{annotation}){gap}."
 
 
 every_symbol = st.one_of(plain_symbols, odd_symbols)
@@ -173,9 +197,16 @@ def test_plain_clauses_are_read_quickly_and_as_the_grammar_reads_them(text):
     assert answered == (by_grammar(text, "cnf_formula") != FAILED), text
 
 
+@settings(max_examples=150, deadline=None)
+@given(formulas(plain_symbols))
+def test_plain_formulas_are_read_as_the_grammar_reads_them(text):
+    assert_agrees(text, "fof_formula")
+
+
 @settings(max_examples=100, deadline=None)
 @given(st.one_of(terms(every_symbol).map(lambda t: (t, "fof_term")),
                  clauses(every_symbol).map(lambda c: (c, "cnf_formula")),
+                 formulas(every_symbol).map(lambda f: (f, "fof_formula")),
                  statements(every_symbol).map(lambda s: (s, "tptp_input"))))
 def test_every_word_shape_is_read_as_the_grammar_reads_it_or_left_to_it(case):
     assert_agrees(*case)
@@ -184,6 +215,7 @@ def test_every_word_shape_is_read_as_the_grammar_reads_it_or_left_to_it(case):
 @settings(max_examples=150, deadline=None)
 @given(st.one_of(damaged(clauses(every_symbol)).map(lambda c: (c, "cnf_formula")),
                  damaged(terms(every_symbol)).map(lambda t: (t, "fof_term")),
+                 damaged(formulas(every_symbol)).map(lambda f: (f, "fof_formula")),
                  damaged(statements(every_symbol)).map(lambda s: (s, "tptp_input"))))
 def test_damaged_text_is_read_as_the_grammar_reads_it_or_left_to_it(case):
     assert_agrees(*case)
@@ -203,7 +235,7 @@ EDGES = [
     ("a = b = c", "cnf_formula", False), ("$false", "cnf_formula", True), ("~ $true | $true", "cnf_formula", True),
     ("$$s(X) | ~ $d", "cnf_formula", True), ("a | ", "cnf_formula", False), ("p(X) % note", "cnf_formula", False),
     ("cnf(a, axiom, p, [a]:b).", "tptp_input", False), ("cnf(a, axiom, p, f([a]:b)).", "tptp_input", False),
-    ("cnf(a, axiom, p, $fof(p)).", "tptp_input", False), ("cnf(a, axiom, p, $cnf(p | ~q)).", "tptp_input", True),
+    ("cnf(a, axiom, p, $fof(p => q)).", "tptp_input", True), ("cnf(a, axiom, p, $cnf(p | ~q)).", "tptp_input", True),
     ("cnf(a, axiom, p, a:b:f(c):[d]).", "tptp_input", True), ("cnf(a,axiom,p,x,y,z).", "tptp_input", False),
     ("cnf (a , axiom , p ) .", "tptp_input", True), ("cnf(a, axiom, p)./* c */", "tptp_input", False),
     ("cnf(12, axiom, p).", "tptp_input", True), ("cnf('12', axiom, p).", "tptp_input", True),
@@ -212,8 +244,19 @@ EDGES = [
     ("cnf(a, axiom, p, f:[]).", "tptp_input", True), ("cnf(a, axiom, p, [a,]).", "tptp_input", False),
     ("cnf(a, axiom, ! [X] : p(X)).", "tptp_input", False), ("cnf(a, lemma_ish, p).", "tptp_input", False),
     ("cnf(X, axiom, p).", "tptp_input", False), ("cnf(a, axiom, p, [X, 3, 'q r', \"d\"]).", "tptp_input", False),
-    ("fof(a, axiom, p).", "tptp_input", False), ("cnf(a, axiom, p, inference(r, [], [s:[bind(X, $fot(Y))]])).",
+    ("fof(a, axiom, p).", "tptp_input", True), ("cnf(a, axiom, p, inference(r, [], [s:[bind(X, $fot(Y))]])).",
                                                   "tptp_input", True),
+    ("~ a != b", "fof_formula", True), ("a => b => c", "fof_formula", False), ("a | b & c", "fof_formula", False),
+    ("a | b | c", "fof_formula", True), ("(a & b) & c", "fof_formula", True), ("p <= q", "fof_formula", True),
+    ("! [X] : p(X) => q(X)", "fof_formula", True), ("! [] : p", "fof_formula", False),
+    ("! [X,] : p(X)", "fof_formula", False), ("? [X : $i] : p(X)", "fof_formula", False),
+    ("~| p", "fof_formula", False), ("p ~| q", "fof_formula", True), ("$true & ~$false", "fof_formula", True),
+    ("X", "fof_formula", False), ("p(X) = q(X)", "fof_formula", True), ("a =>b", "fof_formula", True),
+    ("a = >b", "fof_formula", False), ("a <=> b <=> c", "fof_formula", False), ("(a)", "fof_formula", True),
+    ("~" * 150 + "p", "fof_formula", False), ("(" * 150 + "p" + ")" * 150, "fof_formula", False),
+    ("fof(a, axiom, ! [X] : ? [Y] : r(X, Y), file('p.p', a)).", "tptp_input", True),
+    ("fof(a, axiom, p & q, inference(r, [status(thm)], [b]))", "tptp_input", False),
+    ("tff(a, axiom, p).", "tptp_input", False), ("include('a.ax').", "tptp_input", False),
 ]
 
 
