@@ -697,19 +697,46 @@ def _string_origin(where: Location | None) -> tuple[str, int, int]:
 # ------------------------------------------------------------ public API
 
 
+_READINGS: dict[tuple[str, str], object] = {}
+_READINGS_LIMITS: list = [None]
+_READINGS_KEPT = 100_000
+
+
+def _remembered(text: str, start: str, where: Location | None):
+    """Strings repeat in a certificate (a substitution's terms, variable
+    names), so each distinct one is read once.  Only readings that
+    succeeded are kept, under the input limits they were read with; the
+    kernel objects they hold are forgotten with the file
+    (:func:`forget_readings`, from checker/tables.py)."""
+    limits = current_limits()
+    if _READINGS_LIMITS[0] is not limits or len(_READINGS) > _READINGS_KEPT:
+        _READINGS.clear()
+        _READINGS_LIMITS[0] = limits
+    key = (start, text)
+    read = _READINGS.get(key)
+    if read is None:
+        read = _READINGS[key] = _parse(text, start, *_string_origin(where))
+    return read
+
+
+def forget_readings() -> None:
+    """Drop the remembered readings of strings (their terms are a file's)."""
+    _READINGS.clear()
+
+
 def parse_clause(text: str, where: Location | None = None) -> Clause:
     """A clause written in TPTP cnf syntax, without the cnf(...) wrapper."""
-    return _parse(text, "cnf_formula", *_string_origin(where))
+    return _remembered(text, "cnf_formula", where)
 
 
 def parse_formula(text: str, where: Location | None = None) -> Formula:
     """A formula written in TPTP fof syntax, without the fof(...) wrapper."""
-    return _parse(text, "fof_formula", *_string_origin(where))
+    return _remembered(text, "fof_formula", where)
 
 
 def parse_term(text: str, where: Location | None = None) -> Term:
     """A first-order term written in TPTP syntax."""
-    return _parse(text, "fof_term", *_string_origin(where))
+    return _remembered(text, "fof_term", where)
 
 
 # ------------------------------------------------------------ files
