@@ -207,9 +207,14 @@ def _excerpt(text: str, limit: int = 200) -> str:
     return text if len(text) <= limit else text[: limit - 3] + "..."
 
 
+_DECODER = json.JSONDecoder(object_pairs_hook=_no_duplicates, parse_constant=_no_constant)
+
+
 def _decode(record: _Record) -> object:
+    if record.text.startswith("\ufeff"):  # as json.loads says it
+        record.fail("not a JSON record: Unexpected UTF-8 BOM (decode using utf-8-sig)")
     try:
-        return json.loads(record.text, object_pairs_hook=_no_duplicates, parse_constant=_no_constant)
+        return _DECODER.decode(record.text)
     except json.JSONDecodeError as error:
         record.fail(f"not a JSON record: {error.msg}", error.colno)
     except _DuplicateField as error:

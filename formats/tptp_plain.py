@@ -104,29 +104,30 @@ class _Reader:
 
     def term(self) -> Term:
         """<fof_term>: a variable, or a plain, defined or system term."""
-        tokens = self.tokens
+        tokens, at = self.tokens, self.at
         pending: list[tuple[str, list[Term]]] = []  # function terms whose arguments are being read
         while True:
-            token = tokens[self.at]
-            self.at += 1
+            token = tokens[at]
             if token is None:
                 raise _NotPlain
+            at += 1
             first = token[0]
             if first in _UPPER:
                 term = variable(token)
             elif first in _SYMBOL_START:
-                if tokens[self.at] == "(" and first not in _DIGITS:
-                    self.at += 1
-                    pending.append((_symbol(token), []))
+                symbol = _symbol(token) if first == "'" else token
+                if tokens[at] == "(" and first not in _DIGITS:
+                    at += 1
+                    pending.append((symbol, []))
                     continue
-                term = application(_symbol(token))
+                term = application(symbol)
             else:
                 raise _NotPlain
             while pending:
                 symbol, arguments = pending[-1]
                 arguments.append(term)
-                token = tokens[self.at]
-                self.at += 1
+                token = tokens[at]
+                at += 1
                 if token == ",":
                     break
                 if token != ")":
@@ -134,6 +135,7 @@ class _Reader:
                 pending.pop()
                 term = application(symbol, tuple(arguments))
             else:
+                self.at = at
                 return term
 
     def literal(self) -> Literal | None:
