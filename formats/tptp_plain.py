@@ -33,17 +33,19 @@ from checker.kernel.formulas import FALSUM, IMPLIES, VERUM, Formula, atomic, bin
 from checker.kernel.terms import Term, application, variable
 from formats.limits import current_limits
 
-# One token per match, after optional whitespace: a word of the grammar's
-# terminal shapes, an integer not continued as another number, or a mark.
-# Any other character lands in the second group and ends the quick reading.
-_TOKEN = re.compile(
-    r"[ \t\r\n\f\v]*(?:"
-    r"([a-z][a-zA-Z0-9_]*|[A-Z][a-zA-Z0-9_]*|\$\$?[a-z][a-zA-Z0-9_]*"
+# A token, after optional whitespace: a word of the grammar's terminal
+# shapes, an integer not continued as another number, or a mark.  Each is
+# matched atomically, so the tokens the whole text is checked to consist of
+# are exactly those findall cuts it into.
+_ONE_TOKEN = (
+    r"[ \t\r\n\f\v]*(?>("
+    r"[a-z][a-zA-Z0-9_]*|[A-Z][a-zA-Z0-9_]*|\$\$?[a-z][a-zA-Z0-9_]*"
     r"|'(?:[ -&(-\[\]-~]|\\['\\])+'"
     r"|(?:0|[1-9][0-9]*)(?![0-9a-zA-Z_./])"
-    r"|<=>|<~>|=>|<=|~\||~&|!=|[(),|&~=\[\]:.!?])"
-    r"|([^ \t\r\n\f\v]))"
+    r"|<=>|<~>|=>|<=|~\||~&|!=|[(),|&~=\[\]:.!?]))"
 )
+_TOKEN = re.compile(_ONE_TOKEN)
+_ONLY_TOKENS = re.compile(f"(?:{_ONE_TOKEN})*+[ \t\r\n\f\v]*")
 _LOWER_WORD = re.compile(r"[a-z][a-zA-Z0-9_]*")
 _LOWER = frozenset("abcdefghijklmnopqrstuvwxyz")
 _UPPER = frozenset("ABCDEFGHIJKLMNOPQRSTUVWXYZ")
@@ -65,13 +67,12 @@ class _NotPlain(Exception):
 def _tokens(text: str) -> list[str | None] | None:
     """The tokens of ``text`` and a closing ``None``; None if some character
     is no token here or some word is longer than the name-length limit."""
-    found = _TOKEN.findall(text)
+    if _ONLY_TOKENS.fullmatch(text) is None:
+        return None
+    tokens: list[str | None] = _TOKEN.findall(text)
     limit = current_limits().name_length
-    tokens: list[str | None] = []
-    for token, other in found:
-        if other or len(token) > limit:
-            return None
-        tokens.append(token)
+    if len(text) > limit and max(map(len, tokens)) > limit:
+        return None
     tokens.append(None)
     return tokens
 
