@@ -20,7 +20,9 @@ fixture.
 
 Token shapes are those of the grammar's terminals (<lower_word>,
 <upper_word>, <dollar_word>, <dollar_dollar_word>, <single_quoted>,
-<integer>).  Reading is iterative, so nesting depth costs no recursion.
+<integer>).  Terms and annotations are read iteratively, so their depth
+costs no recursion; formulas recurse, at most a hundred levels (deeper
+ones are left to the grammar).
 """
 
 from __future__ import annotations
@@ -71,7 +73,7 @@ def _tokens(text: str) -> list[str | None] | None:
         return None
     tokens: list[str | None] = _TOKEN.findall(text)
     limit = current_limits().name_length
-    if len(text) > limit and max(map(len, tokens)) > limit:
+    if len(text) > limit and max(map(len, tokens), default=0) > limit:
         return None
     tokens.append(None)
     return tokens

@@ -328,6 +328,13 @@ def test_past_the_name_length_limit_the_grammar_gives_its_error_at_the_word():
     assert error.value.location.column == 3
 
 
+def test_text_of_blanks_longer_than_the_name_limit_is_left_to_the_grammar():
+    with bounded(InputLimits(name_length=5)):
+        assert tptp._plain(" " * 8, "fof_term") is None
+        with pytest.raises(UnreadableInput):
+            parse_term(" " * 8)
+
+
 def test_an_error_in_a_plain_looking_statement_is_the_grammars_at_its_place():
     text = "cnf(a1, axiom, p(X)).\ncnf(a2, axiom, p(X) | | q(X)).\n"
     with pytest.raises(UnreadableInput) as error:
