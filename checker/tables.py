@@ -20,6 +20,7 @@ from contextlib import contextmanager
 from checker import leaves
 from checker.kernel import formulas, terms
 from checker.search import models, namings, restatement
+from formats import tptp
 
 _lock = threading.Lock()
 _open = 0
@@ -33,6 +34,7 @@ def _forget_memos() -> None:
     restatement.shape_of.cache_clear()
     namings.forget_definitions()
     models.forget_countermodels()
+    tptp.forget_readings()
 
 
 @contextmanager

@@ -21,6 +21,7 @@ unknown version is unreadable input, reported at the record's line.
 from __future__ import annotations
 
 import dataclasses
+import functools
 import json
 import re
 from collections.abc import Collection, Iterator, Mapping
@@ -206,9 +207,14 @@ def _excerpt(text: str, limit: int = 200) -> str:
     return text if len(text) <= limit else text[: limit - 3] + "..."
 
 
+_DECODER = json.JSONDecoder(object_pairs_hook=_no_duplicates, parse_constant=_no_constant)
+
+
 def _decode(record: _Record) -> object:
+    if record.text.startswith("\ufeff"):  # as json.loads says it
+        record.fail("not a JSON record: Unexpected UTF-8 BOM (decode using utf-8-sig)")
     try:
-        return json.loads(record.text, object_pairs_hook=_no_duplicates, parse_constant=_no_constant)
+        return _DECODER.decode(record.text)
     except json.JSONDecodeError as error:
         record.fail(f"not a JSON record: {error.msg}", error.colno)
     except _DuplicateField as error:
@@ -277,9 +283,13 @@ def _header(record: _Record, value: object) -> NativeHeader:
 
 def _content(record: _Record, language: str, text: str) -> Clause | Formula:
     # Typed statements are written with their sorts erased, in fof syntax.
-    where = record.location(record.column_of_value("formula"))
+    parse = parse_clause if language == "cnf" else parse_formula
     try:
-        return parse_clause(text, where) if language == "cnf" else parse_formula(text, where)
+        return parse(text)
+    except UnreadableInput:
+        where = record.location(record.column_of_value("formula"))  # only an error needs its place
+    try:
+        return parse(text, where)
     except UnreadableInput as error:
         raise UnreadableInput(f"field 'formula': {error.message}", error.location, error.excerpt or _excerpt(record.text)) from None
 
@@ -325,13 +335,14 @@ def _flag(record: _Record, value: object, field: str) -> bool:
 _READ_FIELD = {INDEX: _index, SUBSTITUTION: _substitution, POSITION: _position, FLAG: _flag}
 
 
-def _evidence_fields(evidence: type) -> tuple[list[str], list[str]]:
+@functools.cache
+def _evidence_fields(evidence: type) -> tuple[tuple[str, ...], tuple[str, ...]]:
     """The evidence class's fields, split into (required, optional)."""
     required, optional = [], []
     for field in dataclasses.fields(evidence):
         has_default = field.default is not dataclasses.MISSING
         (optional if has_default else required).append(field.name)
-    return required, optional
+    return tuple(required), tuple(optional)
 
 
 def _primitive(

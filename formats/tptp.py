@@ -50,6 +50,7 @@ from formats.derivation import (
     UnreadableInput,
 )
 from formats.limits import current_limits, too_deep_at
+from formats.tptp_plain import PlainReader
 from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
 from formats.tptp_types import (
     Call,
@@ -634,6 +635,9 @@ def _parse(text: str, start: str, file: str, line: int, column: int, whole: str 
         at_column = deep - (text.rfind("\n", 0, deep) + 1) + 1
         message = f"brackets nested more than {limits.depth} deep; {limits.describe('depth')}"
         raise _unreadable(message, at_line, at_column, text, file, line, column, whole)
+    plain = _plain(text, start)
+    if plain is not None:
+        return plain
     try:
         return _PARSER.parse(text, start=start)
     except (UnexpectedCharacters, UnexpectedToken) as error:
@@ -643,6 +647,27 @@ def _parse(text: str, start: str, file: str, line: int, column: int, whole: str 
     except _Misread as error:
         message, at_line, at_column = error.message, error.token.line, error.token.column
     raise _unreadable(message, at_line, at_column, text, file, line, column, whole)
+
+
+_PLAIN = PlainReader(_Word, _Function, _List, _Colon, _Data, ROLES)
+
+
+def _plain(text: str, start: str):
+    """What the grammar would read from ``text``, if it is of the plain shape
+    formats/tptp_plain.py reads on its own (most statements, clauses,
+    formulas and terms); else None."""
+    if start == "cnf_formula":
+        return _PLAIN.clause(text)
+    if start == "fof_term":
+        return _PLAIN.term(text)
+    if start == "fof_formula":
+        return _PLAIN.formula(text)
+    if start == "tptp_input":
+        read = _PLAIN.statement(text)
+        if read is not None:
+            language, name, role, content, source = read
+            return _Annotated(language, name, role, content, None if source is None else _source(source))
+    return None
 
 
 _TYPED_HINT = (
@@ -672,19 +697,46 @@ def _string_origin(where: Location | None) -> tuple[str, int, int]:
 # ------------------------------------------------------------ public API
 
 
+_READINGS: dict[tuple[str, str], object] = {}
+_READINGS_LIMITS: list = [None]
+_READINGS_KEPT = 100_000
+
+
+def _remembered(text: str, start: str, where: Location | None):
+    """Strings repeat in a certificate (a substitution's terms, variable
+    names), so each distinct one is read once.  Only readings that
+    succeeded are kept, under the input limits they were read with; the
+    kernel objects they hold are forgotten with the file
+    (:func:`forget_readings`, from checker/tables.py)."""
+    limits = current_limits()
+    if _READINGS_LIMITS[0] is not limits or len(_READINGS) > _READINGS_KEPT:
+        _READINGS.clear()
+        _READINGS_LIMITS[0] = limits
+    key = (start, text)
+    read = _READINGS.get(key)
+    if read is None:
+        read = _READINGS[key] = _parse(text, start, *_string_origin(where))
+    return read
+
+
+def forget_readings() -> None:
+    """Drop the remembered readings of strings (their terms are a file's)."""
+    _READINGS.clear()
+
+
 def parse_clause(text: str, where: Location | None = None) -> Clause:
     """A clause written in TPTP cnf syntax, without the cnf(...) wrapper."""
-    return _parse(text, "cnf_formula", *_string_origin(where))
+    return _remembered(text, "cnf_formula", where)
 
 
 def parse_formula(text: str, where: Location | None = None) -> Formula:
     """A formula written in TPTP fof syntax, without the fof(...) wrapper."""
-    return _parse(text, "fof_formula", *_string_origin(where))
+    return _remembered(text, "fof_formula", where)
 
 
 def parse_term(text: str, where: Location | None = None) -> Term:
     """A first-order term written in TPTP syntax."""
-    return _parse(text, "fof_term", *_string_origin(where))
+    return _remembered(text, "fof_term", where)
 
 
 # ------------------------------------------------------------ files

@@ -42,31 +42,30 @@ class Substitution:
         return sorted(self.mapping.items(), key=lambda item: item[0].symbol)
 
     def __call__(self, term: Term) -> Term:
-        """The instance of ``term`` under this substitution."""
+        """The instance of ``term`` under this substitution.  Only compound
+        terms with variables below them are visited; a variable argument is
+        looked up, a ground one kept."""
         if term.ground or not self.mapping:
             return term
         mapping = self.mapping
+        if term.is_variable:
+            return mapping.get(term, term)
         done: dict[Term, Term] = {}
         stack = [term]
         while stack:
             current = stack[-1]
-            if current in done:
+            if current in done:  # a shared subterm, pushed twice
                 stack.pop()
-            elif current.is_variable:
-                done[current] = mapping.get(current, current)
-                stack.pop()
-            elif current.ground:
-                done[current] = current
-                stack.pop()
-            else:
-                pending = [a for a in current.arguments if a not in done]
-                if pending:
-                    stack.extend(pending)
-                else:
-                    stack.pop()
-                    done[current] = application(
-                        current.symbol, tuple(done[a] for a in current.arguments)
-                    )
+                continue
+            pending = [a for a in current.arguments if not (a.ground or a.is_variable or a in done)]
+            if pending:
+                stack.extend(pending)
+                continue
+            stack.pop()
+            done[current] = application(
+                current.symbol,
+                tuple(a if a.ground else mapping.get(a, a) if a.is_variable else done[a] for a in current.arguments),
+            )
         return done[term]
 
 

@@ -145,6 +145,14 @@ def test_text_that_is_not_utf8_is_located(tmp_path):
     assert "UTF-8" in caught.value.message
 
 
+def test_a_byte_order_mark_inside_the_text_is_refused_at_its_record():
+    # a byte-order mark starts a file, never a line inside it (RFC 8259, section 8.1)
+    with pytest.raises(UnreadableInput) as caught:
+        parse_native(HEADER + "\n\ufeff" + LEAF + "\n", "cert.jsonl")
+    assert caught.value.location == Location("cert.jsonl", 2, 1)
+    assert "BOM" in caught.value.message
+
+
 # ------------------------------------------------------------------ bad records
 
 
