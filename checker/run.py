@@ -16,6 +16,7 @@ from dataclasses import replace
 
 from checker.assumptions import check_branch_step, trace_branches
 from checker.certified_steps import checked_with_findings, shared_answers
+from checker.collection import collector_paused_while_reading, derivation_read
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
@@ -80,7 +81,7 @@ def check(
     ``time_limit``) and listed in a caution; ``progress`` hears of every
     step done; ``input_limits`` bound what the readers accept."""
     try:
-        with file_scope(), bounded(input_limits):
+        with file_scope(), bounded(input_limits), collector_paused_while_reading():
             return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem, deadline, progress)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
@@ -183,6 +184,7 @@ def _check(
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
     context = StepContext(limits, build_symbol_table(plan.steps, problem), conjectures)
+    derivation_read()
     statements: dict[str, Statement] = {}
     for statement in document.statements:
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step
