@@ -83,7 +83,7 @@ def _instrument(clock: StageClock) -> None:
                 continue
             if value.__module__ in kernel:
                 setattr(module, attribute, clock.wrap("kernel", value))
-            elif module_name == "checker.run" and attribute in ("read_document", "read_tptp"):
+            elif module_name == "checker.run" and attribute in ("read_document", "read_problem", "read_tptp"):
                 setattr(module, attribute, clock.wrap("read", value))
             elif attribute in PLAN_FUNCTIONS and module_name == "checker.run":
                 setattr(module, attribute, clock.wrap("plan", value))
