@@ -119,7 +119,7 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
     discharges: dict[str, Discharge] = {}
     rests_on: dict[str, frozenset[str]] = {}
     declared: dict[str, tuple[str, ...]] = {}
-    falses: list[str] = []  # the `$false` steps so far that rest on assumptions
+    falses_on: dict[str, list[str]] = {}  # per assumption, the `$false` steps so far that rest on it
     branches_of: dict[str, list[str]] = {}  # split clause -> its assumed branches
     for step in plan.steps:
         inherited = frozenset().union(*(rests_on.get(parent, frozenset()) for parent in step.parents))
@@ -129,7 +129,7 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
         closed: dict[str, str] = {}
         if len(step.parents) == 1 and step.inference is not None and not _is_assumption(step):
             for branch in branches_of.get(step.parents[0], ()):
-                closers = [f for f in falses if branch in rests_on[f]]
+                closers = falses_on.get(branch, [])
                 if closers:
                     extra = rests_on[step.parents[0]] | {branch}
                     closed[branch] = min(closers, key=lambda f, extra=extra: (len(rests_on[f] - extra), order[f]))
@@ -152,8 +152,8 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
             rests = inherited
         rests_on[step.name] = rests
         if rests and step.statement is not None and _is_false(step.statement):
-            falses.append(step.name)
             for name in rests:
+                falses_on.setdefault(name, []).append(step.name)
                 if assumptions[name].closed_by is None:
                     assumptions[name] = Assumption(name, assumptions[name].split, step.name)
     return Branches(assumptions, discharges, rests_on, declared)
