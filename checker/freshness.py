@@ -176,6 +176,7 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
                 introducers.setdefault(symbol, []).append(s.name)
             else:
                 implicit_citations.setdefault(leaf_introducers[symbol], []).append(s.name)
+    sorts = sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)])
     occurrences: dict[Symbol, list[str]] = {}
     for name, symbols in step_symbols.items():
         for symbol in symbols:
@@ -195,8 +196,9 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
         {s.name: s.statement.content for s in steps if s.statement is not None},
         leaf_introducers,
         implicit_citations,
-        sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)]),
-        non_monotone_statements(problem.statements) if problem else {},
+        sorts,
+        # only several sorts make a naked variable matter (checker/sorts.py)
+        non_monotone_statements(problem.statements) if problem and len(sorts) > 1 else {},
         {s.name: s for s in steps},
         _polarities(problem, steps),
         occurrences,
