@@ -48,8 +48,7 @@ def read_in_parts(path: str, native: bool, include_dirs: Sequence[str], jobs: in
     if jobs <= 1 or "fork" not in multiprocessing.get_all_start_methods():
         return None
     try:
-        with open(path, "rb") as handle:
-            text = handle.read().decode("utf-8-sig")
+        text = _text_as_read(path, native)
     except (OSError, UnicodeDecodeError):
         return None
     try:
@@ -71,6 +70,17 @@ def read_in_parts(path: str, native: bool, include_dirs: Sequence[str], jobs: in
     first = read[0]
     return replace(first, statements=tuple(s for part in read for s in part.statements),
                    notices=tuple(n for part in read for n in part.notices))
+
+
+def _text_as_read(path: str, native: bool) -> str:
+    """The file's text as its reader takes it: a native certificate's bytes
+    decoded (a carriage return stays, and the reader strips it from each
+    line); a TPTP file with its line ends made newlines."""
+    if native:
+        with open(path, "rb") as handle:
+            return handle.read().decode("utf-8-sig")
+    with open(path, encoding="utf-8-sig") as handle:
+        return handle.read()
 
 
 def _read_part(index: int) -> Document | None:

@@ -61,6 +61,14 @@ def test_statements_keep_their_lines_and_columns_across_comments_and_shared_line
     assert [(s.location.line, s.location.column) for s in in_parts.statements][:3] == [(2, 1), (2, 53), (5, 4)]
 
 
+def test_carriage_returns_end_lines_as_when_read_whole(tmp_path, small_parts):
+    path = tmp_path / "returns.p"
+    path.write_bytes(b"".join(b"cnf(lamp%d, axiom,\r\n  lit(lamp%d)).\r" % (i, i) for i in range(8)))
+    in_parts = read_in_parts(str(path), False, (), 2)
+    assert in_parts is not None and in_parts == read_tptp(str(path))
+    assert in_parts.statements[3].location.line == 7
+
+
 @pytest.mark.parametrize("text", [
     "include('other.ax').\n" + "cnf(a{i}, axiom, p{i}).\n" * 8,  # statements come from another file
     "tff(t, type, crate: $tType).\n" + "cnf(a{i}, axiom, p{i}).\n" * 8,  # types hold for what follows
