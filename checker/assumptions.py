@@ -112,6 +112,9 @@ def _states_part_of(step: Step, split: Statement | None) -> bool:
     return claimed.literal_set < split.content.literal_set
 
 
+NO_ASSUMPTIONS: frozenset[str] = frozenset()
+
+
 def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
     """Follow the assumptions through the derivation, parents first."""
     order = {step.name: number for number, step in enumerate(plan.steps)}
@@ -122,7 +125,8 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
     falses_on: dict[str, list[str]] = {}  # per assumption, the `$false` steps so far that rest on it
     branches_of: dict[str, list[str]] = {}  # split clause -> its assumed branches
     for step in plan.steps:
-        inherited = frozenset().union(*(rests_on.get(parent, frozenset()) for parent in step.parents))
+        inherited = frozenset().union(*(rests_on.get(parent, NO_ASSUMPTIONS) for parent in step.parents)) \
+            or NO_ASSUMPTIONS  # one empty set for the many steps that rest on nothing
         record = _declared(step)
         if record is not None:
             declared[step.name] = record

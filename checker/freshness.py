@@ -36,12 +36,12 @@ class SymbolTable:
     """Occurrences of symbols in the problem and in each stated step."""
 
     problem: dict[Symbol, tuple[str, Location]]
-    steps: dict[str, set[Symbol]]
     locations: dict[str, Location]
     children: dict[str, list[str]]
     introducers: dict[Symbol, list[str]]
     order: dict[str, int]
-    parents: dict[str, frozenset[str]]
+    parents: dict[str, tuple[str, ...]]
+    """each step's parents, sorted and without repeats"""
     contents: dict[str, Clause | Formula]
     leaf_introducers: dict[Symbol, str]
     """the first introduced leaf (an axiom of choice, a definition) in which
@@ -60,7 +60,8 @@ class SymbolTable:
     (-1) in the problem and the stated steps (conjectures counted negated)"""
     occurrences: dict[Symbol, list[str]] = field(default_factory=dict)
     """per symbol, the stated steps it occurs in, in checking order: a
-    freshness question looks at these, not at every step"""
+    freshness question looks at these, not at every step (and no set of
+    symbols per step is kept)"""
     introduced_by: dict[str, list[Symbol]] = field(default_factory=dict)
     """per introducing step, the symbols it introduces (``introducers`` turned round)"""
 
@@ -187,12 +188,11 @@ def build_symbol_table(steps: Iterable[Step], problem: Document | None) -> Symbo
             introduced_by.setdefault(name, []).append(symbol)
     return SymbolTable(
         problem_symbols,
-        step_symbols,
         {s.name: s.location for s in steps},
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
-        {s.name: frozenset(s.parents) for s in steps},
+        {s.name: tuple(sorted(set(s.parents))) for s in steps},
         {s.name: s.statement.content for s in steps if s.statement is not None},
         leaf_introducers,
         implicit_citations,
