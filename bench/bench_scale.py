@@ -94,10 +94,9 @@ def run_one(path: str, problem: str, jobs: int) -> dict:
     """Check one certificate in this (fresh) process; figures as a dict."""
     clock = StageClock()
     _instrument(clock)
+    import checker.run
     from checker.report import render_text
     from checker.run import check
-
-    import checker.run
 
     read_by_children = []  # the reading processes' CPU seconds, taken once reading is over
     planning = checker.run.make_plan
