@@ -7,7 +7,11 @@ on a busy machine.  With ``--before REV`` each derivation is also checked
 by the code of git revision REV (exported to a temporary folder), and both
 figures are printed side by side.
 
-Run: python3 bench/bench_prover_corpus.py [--budget SECONDS] [--before REV] [--corpus DIR] [NAME ...]
+With ``--large`` the derivations are the long ones of
+fixtures/tptp/prover_corpus/large (hundreds to thousands of steps, each
+found by the prover in well under ten seconds).
+
+Run: python3 bench/bench_prover_corpus.py [--budget SECONDS] [--before REV] [--corpus DIR | --large] [NAME ...]
 """
 
 from __future__ import annotations
@@ -24,6 +28,7 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[1]
 CORPUS = ROOT / "fixtures" / "tptp" / "prover_corpus"
+LARGE = CORPUS / "large"  # 800 to 2,100 statements each (bench/large_problems.py wrote the problems)
 
 
 def _children_cpu() -> float:
@@ -77,6 +82,7 @@ def main() -> None:
     parser.add_argument("--budget", type=float, default=600.0, help="wall seconds per derivation")
     parser.add_argument("--before", metavar="REV", help="also check with the code of this git revision")
     parser.add_argument("--corpus", type=Path, default=CORPUS, help="folder of derivation folders")
+    parser.add_argument("--large", action="store_const", dest="corpus", const=LARGE, help="the long derivations")
     parser.add_argument("names", nargs="*", help="derivations to run (default: all)")
     options = parser.parse_args()
     folders = sorted(f for f in options.corpus.resolve().iterdir() if (f / "proof.p").is_file())

@@ -112,6 +112,9 @@ def _states_part_of(step: Step, split: Statement | None) -> bool:
     return claimed.literal_set < split.content.literal_set
 
 
+NO_ASSUMPTIONS: frozenset[str] = frozenset()
+
+
 def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
     """Follow the assumptions through the derivation, parents first."""
     order = {step.name: number for number, step in enumerate(plan.steps)}
@@ -119,17 +122,18 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
     discharges: dict[str, Discharge] = {}
     rests_on: dict[str, frozenset[str]] = {}
     declared: dict[str, tuple[str, ...]] = {}
-    falses: list[str] = []  # the `$false` steps so far that rest on assumptions
+    falses_on: dict[str, list[str]] = {}  # per assumption, the `$false` steps so far that rest on it
     branches_of: dict[str, list[str]] = {}  # split clause -> its assumed branches
     for step in plan.steps:
-        inherited = frozenset().union(*(rests_on.get(parent, frozenset()) for parent in step.parents))
+        inherited = frozenset().union(*(rests_on.get(parent, NO_ASSUMPTIONS) for parent in step.parents)) \
+            or NO_ASSUMPTIONS  # one empty set for the many steps that rest on nothing
         record = _declared(step)
         if record is not None:
             declared[step.name] = record
         closed: dict[str, str] = {}
         if len(step.parents) == 1 and step.inference is not None and not _is_assumption(step):
             for branch in branches_of.get(step.parents[0], ()):
-                closers = [f for f in falses if branch in rests_on[f]]
+                closers = falses_on.get(branch, [])
                 if closers:
                     extra = rests_on.get(step.parents[0], frozenset()) | {branch}  # a dangling parent rests on nothing
                     closed[branch] = min(closers, key=lambda f, extra=extra: (len(rests_on[f] - extra), order[f]))
@@ -152,8 +156,8 @@ def trace_branches(plan: Plan, statements: dict[str, Statement]) -> Branches:
             rests = inherited
         rests_on[step.name] = rests
         if rests and step.statement is not None and _is_false(step.statement):
-            falses.append(step.name)
             for name in rests:
+                falses_on.setdefault(name, []).append(step.name)
                 if assumptions[name].closed_by is None:
                     assumptions[name] = Assumption(name, assumptions[name].split, step.name)
     return Branches(assumptions, discharges, rests_on, declared)

@@ -36,12 +36,12 @@ class SymbolTable:
     """Occurrences of symbols in the problem and in each stated step."""
 
     problem: dict[Symbol, tuple[str, Location]]
-    steps: dict[str, set[Symbol]]
     locations: dict[str, Location]
     children: dict[str, list[str]]
     introducers: dict[Symbol, list[str]]
     order: dict[str, int]
-    parents: dict[str, frozenset[str]]
+    parents: dict[str, tuple[str, ...]]
+    """each step's parents, sorted and without repeats"""
     contents: dict[str, Clause | Formula]
     leaf_introducers: dict[Symbol, str]
     """the first introduced leaf (an axiom of choice, a definition) in which
@@ -58,6 +58,12 @@ class SymbolTable:
     polarities: dict[Symbol, dict[int, tuple[str, Location]]] = field(default_factory=dict)
     """per predicate, where it first occurs positively (+1) and negatively
     (-1) in the problem and the stated steps (conjectures counted negated)"""
+    occurrences: dict[Symbol, list[str]] = field(default_factory=dict)
+    """per symbol, the stated steps it occurs in, in checking order: a
+    freshness question looks at these, not at every step (and no set of
+    symbols per step is kept)"""
+    introduced_by: dict[str, list[Symbol]] = field(default_factory=dict)
+    """per introducing step, the symbols it introduces (``introducers`` turned round)"""
 
     def descendants(self, name: str) -> set[str]:
         found: set[str] = set()
@@ -90,7 +96,7 @@ class SymbolTable:
         return sorted(group - {step}, key=self.order.__getitem__)
 
     def introducers_of(self, step: str) -> list[Symbol]:
-        return [symbol for symbol, steps in self.introducers.items() if step in steps]
+        return self.introduced_by.get(step, [])
 
     def freshness_failure(self, step: str, new_symbols: Iterable[Symbol], peers: Iterable[str] = ()) -> str | None:
         """Why one of ``new_symbols`` introduced by ``step`` is not fresh, or
@@ -98,6 +104,7 @@ class SymbolTable:
         order) is the one at fault, and the earlier is judged without it;
         ``peers``, introducing it together with ``step``, are no fault."""
         peers = set(peers)
+        own_allowed: set[str] | None = None  # computed once, when a symbol occurs outside ``step``
         for symbol in sorted(new_symbols):
             if symbol in self.problem:
                 name, location = self.problem[symbol]
@@ -112,14 +119,19 @@ class SymbolTable:
                     f"new symbol `{describe_symbol(symbol)}` (in no parent) is not fresh: it was already "
                     f"introduced by step `{earlier[0]}` at {self.locations[earlier[0]]}"
                 )
-            allowed = self.descendants(step) | {step}
-            for user in self.implicit_citations.get(step, ()):
-                allowed |= self.descendants(user) | {user}
+            users = [name for name in self.occurrences.get(symbol, ()) if name != step]
+            if not users:
+                continue
+            if own_allowed is None:
+                own_allowed = self.descendants(step) | {step}
+                for user in self.implicit_citations.get(step, ()):
+                    own_allowed |= self.descendants(user) | {user}
+            allowed = own_allowed
             for later in introducers:
                 if self.order[later] > self.order[step] or later in peers:
-                    allowed |= self.descendants(later) | {later}
-            for name, symbols in self.steps.items():
-                if name not in allowed and symbol in symbols:
+                    allowed = allowed | self.descendants(later) | {later}
+            for name in users:
+                if name not in allowed:
                     return (
                         f"new symbol `{describe_symbol(symbol)}` (in no parent) is not fresh: it occurs in step "
                         f"`{name}` at {self.locations[name]}, which does not descend from this step"
@@ -168,8 +180,9 @@ def build_symbol_table(
     implicit_citations: dict[str, list[str]] = {}
     for s in steps:
         if s.statement is not None and s.is_leaf and _is_introduction(s):
-            for symbol in new_symbols_of(s.statement.content) - problem_symbols.keys():
-                leaf_introducers.setdefault(symbol, s.name)
+            for symbol in new_symbols_of(s.statement.content):
+                if symbol not in problem_symbols:  # not `- problem_symbols.keys()`: that walks every key
+                    leaf_introducers.setdefault(symbol, s.name)
     for s in steps:
         if s.statement is None:
             continue
@@ -181,21 +194,32 @@ def build_symbol_table(
                 introducers.setdefault(symbol, []).append(s.name)
             else:
                 implicit_citations.setdefault(leaf_introducers[symbol], []).append(s.name)
+    sorts = sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)])
+    occurrences: dict[Symbol, list[str]] = {}
+    for name, symbols in step_symbols.items():
+        for symbol in symbols:
+            occurrences.setdefault(symbol, []).append(name)
+    introduced_by: dict[str, list[Symbol]] = {}
+    for symbol, names in introducers.items():
+        for name in names:
+            introduced_by.setdefault(name, []).append(symbol)
     return SymbolTable(
         problem_symbols,
-        step_symbols,
         {s.name: s.location for s in steps},
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
-        {s.name: frozenset(s.parents) for s in steps},
+        {s.name: tuple(sorted(set(s.parents))) for s in steps},
         {s.name: s.statement.content for s in steps if s.statement is not None},
         leaf_introducers,
         implicit_citations,
-        sorts_of([*(problem.statements if problem else ()), *(s.statement for s in steps if s.statement)]),
-        non_monotone_statements(problem.statements) if problem else {},
+        sorts,
+        # only several sorts make a naked variable matter (checker/sorts.py)
+        non_monotone_statements(problem.statements) if problem and len(sorts) > 1 else {},
         {s.name: s for s in steps},
         _polarities(problem, [s for s in steps if s.name not in left_out]),
+        occurrences,
+        introduced_by,
     )
 
 

@@ -75,8 +75,8 @@ def naming_freshness_failure(table: SymbolTable, symbol: Symbol) -> str | None:
         return f"new predicate `{describe_symbol(symbol)}` is not fresh: it occurs in the problem's `{name}` at {location}"
     introducers = table.introducers.get(symbol, [])
     allowed = set(introducers).union(*(table.descendants(name) for name in introducers))
-    for name, symbols in table.steps.items():
-        if symbol in symbols and name not in allowed:
+    for name in table.occurrences.get(symbol, ()):
+        if name not in allowed:
             return (
                 f"new predicate `{describe_symbol(symbol)}` is not fresh: it occurs in step `{name}` at "
                 f"{table.locations[name]}, which neither introduces it nor descends from a step that does"
@@ -108,10 +108,9 @@ def _given(table: SymbolTable, symbol: Symbol) -> bool:
     weakening (or wrong), judged as a consequence."""
     if symbol in table.problem:
         return True
+    occurring = (table.planned[name] for name in table.occurrences.get(symbol, ()) if name in table.planned)
     return any(
-        step.is_leaf and not is_definition_leaf(step) and _origin_kind(step) != "introduced"
-        and symbol in table.steps.get(name, ())
-        for name, step in table.planned.items()
+        step.is_leaf and not is_definition_leaf(step) and _origin_kind(step) != "introduced" for step in occurring
     )
 
 

@@ -16,6 +16,7 @@ from dataclasses import replace
 
 from checker.assumptions import check_branch_step, trace_branches
 from checker.certified_steps import checked_with_findings, shared_answers
+from checker.collection import collector_paused_while_reading, derivation_read
 from checker.conditions import conjecture_cautions, one_conjecture_at_a_time, reaches_refutation
 from checker.dependence import mark_unfounded
 from checker.freshness import build_symbol_table
@@ -32,6 +33,7 @@ from checker.outcomes import (
     verdict_of,
 )
 from checker.parallel import map_in_processes
+from checker.parallel_reading import read_in_parts
 from checker.plan import make_plan, with_cited_problem_statements
 from checker.progress import Progress
 from checker.prover_order import derivation_order
@@ -53,13 +55,22 @@ NO_PROBLEM_CAUTION = (
 )
 
 
-def read_document(path: str, include_dirs: Sequence[str] = ()) -> Document:
-    """Read a native certificate (JSON Lines) or a TPTP file, by content."""
+def read_document(path: str, include_dirs: Sequence[str] = (), jobs: int = 1) -> Document:
+    """Read a native certificate (JSON Lines) or a TPTP file, by content;
+    a large one in parts, over ``jobs`` processes."""
     with open(path, encoding="utf-8", errors="replace") as handle:  # the reader reports bad bytes
         start = handle.read(4096).lstrip("\ufeff \t\r\n")
-    if path.endswith(".jsonl") or start.startswith("{"):
-        return read_native(path)
-    return read_tptp(path, include_dirs)
+    native = path.endswith(".jsonl") or start.startswith("{")
+    in_parts = read_in_parts(path, native, include_dirs, jobs)
+    if in_parts is not None:
+        return in_parts
+    return read_native(path) if native else read_tptp(path, include_dirs)
+
+
+def read_problem(path: str, include_dirs: Sequence[str] = (), jobs: int = 1) -> Document:
+    """Read a TPTP problem; a large one in parts, over ``jobs`` processes."""
+    in_parts = read_in_parts(path, False, include_dirs, jobs)
+    return in_parts if in_parts is not None else read_tptp(path, include_dirs)
 
 
 def check(
@@ -81,7 +92,7 @@ def check(
     ``time_limit``) and listed in a caution; ``progress`` hears of every
     step done; ``input_limits`` bound what the readers accept."""
     try:
-        with file_scope(), bounded(input_limits):
+        with file_scope(), bounded(input_limits), collector_paused_while_reading():
             return _check(path, problem, tuple(include_dirs), limits, jobs, require_problem, deadline, progress)
     except UnreadableInput as error:
         text = f"{error.location}: {error.message}"
@@ -175,16 +186,17 @@ def _check(
     progress: Progress | None = None,
 ) -> Report:
     include_dirs = _include_dirs(include_dirs)
-    document = _statements_or_unreadable(read_document(path, include_dirs))
+    document = _statements_or_unreadable(read_document(path, include_dirs, jobs))
     cited = [] if problem_path else cited_problems(path, document)
     problem_path = problem_path or discover_problem(path, cited, include_dirs)
     _refuse_problem(path, problem_path, cited, document, include_dirs, require_problem)
-    problem = _statements_or_unreadable(read_tptp(problem_path, include_dirs)) if problem_path else None
+    problem = _statements_or_unreadable(read_problem(problem_path, include_dirs, jobs)) if problem_path else None
     document = with_cited_problem_statements(document, problem)
     plan = make_plan(document)
     conjectures = None if problem is None else tuple(s.content for s in problem.statements if s.role == "conjecture")
     unlinked = unlinked_leaves(plan.steps, problem, limits)
     context = StepContext(limits, build_symbol_table(plan.steps, problem, frozenset(unlinked)), conjectures)
+    derivation_read()
     statements: dict[str, Statement] = {}
     for statement in document.statements:
         statements.setdefault(statement.name, statement)  # as the plan does: a duplicate is not a step

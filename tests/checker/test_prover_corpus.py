@@ -77,7 +77,7 @@ def _failure_text(report) -> str:
 
 
 def test_the_corpus_holds_problems_with_derivations_and_mutants():
-    folders = sorted(f for f in CORPUS.iterdir() if f.is_dir())
+    folders = sorted(f for f in CORPUS.iterdir() if f.is_dir() and f.name != "large")  # large: a corpus of its own
     assert len(folders) >= 15
     for folder in folders:
         assert (folder / "problem.p").is_file() and (folder / "proof.p").is_file(), folder.name
