@@ -10,7 +10,7 @@ each, because the soundness of those steps rests on their freshness.
 
 from __future__ import annotations
 
-from checker.freshness import SymbolTable, describe_symbol
+from checker.freshness import SymbolTable, content_symbols, describe_symbol
 from checker.kernel.clauses import Clause, Literal, is_equality
 from checker.kernel.formulas import FALSE, FALSUM, TRUE
 from checker.outcomes import NOT_NEEDED, TAUTOLOGY, UNUSED_LEAF, Introduction, Note
@@ -91,8 +91,8 @@ def introduced_symbols(symbols: SymbolTable) -> tuple[Introduction, ...]:
     it has is left out when only such introduced leaves list it."""
     given = set(symbols.problem)
     for name, step in symbols.planned.items():
-        if step.is_leaf and not _is_introduced(step):
-            given |= symbols.steps.get(name, set())
+        if step.is_leaf and not _is_introduced(step) and name in symbols.contents:
+            given |= content_symbols(symbols.contents[name])
     found = []
     for symbol, steps in symbols.introducers.items():
         if symbol in given and all(_is_introduced(symbols.planned[name]) for name in steps if name in symbols.planned):
