@@ -19,6 +19,7 @@ from contextvars import ContextVar
 from dataclasses import dataclass, field, replace
 
 from checker.formula_steps import step_result
+from checker.leaves import problem_statement_named
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import Formula, render_formula
 from checker.outcomes import CHECKED, FAILED, RECONSTRUCTED, UNPROVEN, StepResult
@@ -69,9 +70,9 @@ def problem_link(step: Step, problem: Document | None) -> Finding | None:
     origin = step.statement.source if step.statement is not None else None
     cited = origin.detail[1] if isinstance(origin, Origin) and origin.kind == "file" and len(origin.detail) > 1 else None
     for name in (cited, step.name):
-        for statement in problem.statements:
-            if statement.name == name:
-                return Finding(PROBLEM_LINK, statement.name, text_digest(statement.content))
+        statement = problem_statement_named(problem, name) if name is not None else None
+        if statement is not None:
+            return Finding(PROBLEM_LINK, statement.name, text_digest(statement.content))
     return None
 
 
@@ -80,11 +81,11 @@ def _link_failure(step: Step, link: Finding, problem: Document | None) -> StepRe
     different text (the problem changed since the certificate was written)."""
     if problem is None:
         return None
-    named = [s for s in problem.statements if s.name == link.key]
-    if not named:
+    named = problem_statement_named(problem, link.key)
+    if named is None:
         return step_result(step, FAILED, f"links to problem formula `{link.key}`, which the problem does not have",
                            ("reason: link_unknown",))
-    digest = text_digest(named[0].content)
+    digest = text_digest(named.content)
     if digest != link.answer:
         return step_result(
             step, FAILED,

@@ -284,6 +284,9 @@ class _ProblemInputs:
     statements: tuple[Statement, ...]
     by_name: dict[str, list[Statement]]
     conjectures: tuple[Statement, ...]
+    first_named: dict[str, Statement]
+    """the first statement of each name, derived or not (what a
+    certificate's link to a problem formula names)"""
 
 
 _last_indexed: tuple = (None, None)  # (problem, its inputs), replaced as one value
@@ -297,9 +300,18 @@ def _problem_inputs(problem: Document) -> _ProblemInputs:
         by_name: dict[str, list[Statement]] = {}
         for statement in statements:
             by_name.setdefault(statement.name, []).append(statement)
-        inputs = _ProblemInputs(statements, by_name, tuple(s for s in statements if s.role == "conjecture"))
+        first_named: dict[str, Statement] = {}
+        for statement in problem.statements:
+            first_named.setdefault(statement.name, statement)
+        conjectures = tuple(s for s in statements if s.role == "conjecture")
+        inputs = _ProblemInputs(statements, by_name, conjectures, first_named)
         _last_indexed = (problem, inputs)
     return inputs
+
+
+def problem_statement_named(problem: Document, name: str) -> Statement | None:
+    """The problem's first statement of this name (a look-up, not a pass)."""
+    return _problem_inputs(problem).first_named.get(name)
 
 
 def forget_indexed_problem() -> None:
