@@ -553,7 +553,10 @@ def check_negated_conjecture(
     ):
         return step_result(step, RECONSTRUCTED, "the negation of the conjecture")
     new = new_symbols(claimed, [conjecture])
-    if new and not new & _predicates(claimed) and table.freshness_failure(step.name, new) is None:
+    # The clauses of one Skolemized negation, each a step citing the
+    # conjecture, introduce their symbols together.
+    peers = table.co_introducers(step.name, new) if new else []
+    if new and not new & _predicates(claimed) and table.freshness_failure(step.name, new, peers) is None:
         # Negated and Skolemized in one step.
         return check_introduction(step, [negated], claimed, [conjecture], table, limits)
     forward = check_consequence(step, [negated], conclusion, limits, what="follows from the negation of the conjecture")
