@@ -16,7 +16,7 @@ from pathlib import Path
 
 import pytest
 
-from checker.outcomes import ACCEPTED, FAILED, REFUTED, REJECTED
+from checker.outcomes import ACCEPTED, FAILED, REFUTED, REJECTED, UNPROVEN
 from checker.run import check
 
 STYLES = Path(__file__).resolve().parents[2] / "fixtures" / "tptp" / "styles"
@@ -461,3 +461,37 @@ def test_a_reordered_leaf_is_shown_by_a_cover():
     steps = {step.name: step for step in report.steps}
     assert report.verdict == ACCEPTED
     assert "a cover" in steps["f3"].message
+
+
+# A prover that splits a clause into variable-disjoint components may name
+# one by a propositional symbol it never defines; the name is proposed from
+# the clause miniscoped (`! [X1] : open_air(X1)` of
+# `pressurised(X0) | open_air(X1)`), which has it as a subformula.
+
+VENTS = "vent_bank_printed_split_names"
+
+
+def test_a_split_component_named_without_a_definition_is_proposed_from_the_miniscoped_clause():
+    report = check(str(STYLES / VENTS / "proof.p"), str(STYLES / VENTS / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "named by `sP0_iProver_split <=> ! [X1] : open_air(X1)`" in steps["c_61"].message
+
+
+def test_a_split_clause_guarding_the_wrong_component_is_not_accepted(tmp_path):
+    # No definition of sP0 makes both split clauses follow from
+    # `pressurised(X0) | open_air(X1)`: with `! [X1] : open_air(X1)` the
+    # changed clause fails (counter-model: every vent open to air, v1 not
+    # pressurised), with `! [X0] : pressurised(X0)` the first (v1 not
+    # pressurised, every vent open to air, sP0 false), with the clause itself
+    # the changed one (sP0 true, v1 not pressurised).  A proposed definition
+    # never refutes, so the splitting steps are unproven, and the
+    # derivation is rejected downstream.
+    report, steps = _mutant(
+        tmp_path, VENTS,
+        "cnf(c_61,plain,( open_air(X1) | ~sP0_iProver_split )",
+        "cnf(c_61,plain,( pressurised(X1) | ~sP0_iProver_split )",
+    )
+    assert report.verdict == REJECTED
+    assert steps["c_61"].outcome == UNPROVEN
+    assert "reason: no_naming_definition" in steps["c_61"].details
