@@ -407,6 +407,35 @@ MUTANTS = [
         '(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X2)))',
         'f3', 'not_in_problem',
     ),
+    # Nested axioms of choice: the inner witness put inside the outer one of
+    # the other variable.  Counter-model: two cells a, b, every cell open,
+    # in = {(a,a), (b,b), (a,b)}, sub the identity, sK0 the identity,
+    # sK1(x,y) = x; at X0 = b, X2 = a the claim wants sub(b,a).
+    _M(
+        "beacon_cells_printed_nested_choice",
+        "((open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK1(X0,X2),sK0(X0))) | ~in(X2,sK0(X0)))",
+        "((open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK1(X0,X2),sK0(X2))) | ~in(X2,sK0(X0)))",
+        "f8", "countermodel",
+    ),
+    # An inner axiom of choice with the inclusion turned round.  Counter-model:
+    # two cells 0 and 1, in and open everywhere, sub = {(0,0), (0,1)}, sK0
+    # swapping them: the witness for X0 = X2 = 0 must be inside sK0(0) = 1,
+    # so it is 0, and 1 is not inside it.
+    _M(
+        "beacon_cells_printed_nested_choice",
+        "(open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK1(X0,X2),sK0(X0)))) ),introduced",
+        "(open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK0(X0),sK1(X0,X2)))) ),introduced",
+        "f7", "countermodel",
+    ),
+    # A split clause that forgets the split symbol its clause rests on.
+    # Counter-model: spl0_0 false, the witness in neither sK1 nor sK2,
+    # spl0_2 and spl0_3 false (as their definitions say).
+    _M(
+        "shared_shelves_printed_avatar_distribution",
+        "cnf(f43,plain,( spl0_2 | spl0_3 | ~spl0_0 )",
+        "cnf(f43,plain,( spl0_2 | spl0_3 )",
+        "f43", "countermodel",
+    ),
 ]
 
 
