@@ -524,3 +524,27 @@ def test_a_split_clause_guarding_the_wrong_component_is_not_accepted(tmp_path):
     assert report.verdict == REJECTED
     assert steps["c_61"].outcome == UNPROVEN
     assert "reason: no_naming_definition" in steps["c_61"].details
+
+
+# A derivation laid out as published solutions are (the refutation first)
+# is checked in the order it was found: Kahn's order takes the latest
+# written step among the ready ones when most parents are written after
+# their children.  Taking the earliest put the split definitions that
+# mention Skolem constants before the axiom of choice of those constants,
+# which then failed as not fresh.
+
+PUBLISHED = "shelf_meets_printed_published_layout"
+
+
+def test_a_refutation_first_layout_is_checked_in_the_order_it_was_found():
+    report = check(str(STYLES / PUBLISHED / "proof.p"), str(STYLES / PUBLISHED / "problem.p"))
+    order = [step.name for step in report.steps]
+    assert report.verdict == ACCEPTED
+    assert order.index("f11") < order.index("f28") < order.index("f31") < order.index("f73")
+
+
+def test_a_split_symbol_defined_twice_in_a_refutation_first_layout_is_not_fresh(tmp_path):
+    # The second definition in the order found is at fault: spl0_0 would
+    # name both sides of the goal's equation.
+    report, steps = _mutant(tmp_path, PUBLISHED, "fof(f31,plain,( spl0_1 <=>", "fof(f31,plain,( spl0_0 <=>")
+    _rejected_at(report, steps, "f31", "not_fresh")
