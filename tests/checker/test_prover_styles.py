@@ -222,190 +222,190 @@ MUTANTS = [
     # Typed, two sorts: the converse of the resolvent of f16 and f21.  Counter-model:
     # one item, on the depot list sK3 but not on sK1, sK1 covered by sK3.
     _M(
-        'stock_lists_union_printed_tff_sorts',
-        'tff(f26,plain,(\n  ! [X0 : item] : (on(X0,sK3) | ~on(X0,sK1))),',
-        'tff(f26,plain,(\n  ! [X0 : item] : (on(X0,sK1) | ~on(X0,sK3))),',
-        'f26', 'countermodel',
+        "stock_lists_union_printed_tff_sorts",
+        "tff(f26,plain,(\n  ! [X0 : item] : (on(X0,sK3) | ~on(X0,sK1))),",
+        "tff(f26,plain,(\n  ! [X0 : item] : (on(X0,sK1) | ~on(X0,sK3))),",
+        "f26", "countermodel",
     ),
     # Typed, one sort, backward demodulation into the wrong side.  Counter-model:
     # overlap(x,y) = y, interior constantly 0, sK0 = 0, sK1 = 1.
     _M(
-        'survey_interior_printed_tff_demodulation',
-        'tff(f25,plain,(\n  overlap(sK0,interior(sK1)) != overlap(sK0,sK1)),',
-        'tff(f25,plain,(\n  overlap(sK0,interior(sK1)) != overlap(sK1,sK0)),',
-        'f25', 'countermodel',
+        "survey_interior_printed_tff_demodulation",
+        "tff(f25,plain,(\n  overlap(sK0,interior(sK1)) != overlap(sK0,sK1)),",
+        "tff(f25,plain,(\n  overlap(sK0,interior(sK1)) != overlap(sK1,sK0)),",
+        "f25", "countermodel",
     ),
     # thf: symmetry gives link(sK0(X),X), not link(sK0(X),sK0(X)).  Counter-model:
     # two routers, sK0 swaps them, link holds between distinct routers only.
     _M(
-        'peer_links_printed_thf_first_order',
-        'thf(f18,plain,(\n  ! [X0 : router] : (link @ (sK0 @ X0) @ X0)),',
-        'thf(f18,plain,(\n  ! [X0 : router] : (link @ (sK0 @ X0) @ (sK0 @ X0))),',
-        'f18', 'countermodel',
+        "peer_links_printed_thf_first_order",
+        "thf(f18,plain,(\n  ! [X0 : router] : (link @ (sK0 @ X0) @ X0)),",
+        "thf(f18,plain,(\n  ! [X0 : router] : (link @ (sK0 @ X0) @ (sK0 @ X0))),",
+        "f18", "countermodel",
     ),
     # Typed AVATAR: the contradiction under spl0_2 stated with the split symbol
     # positive.  Counter-model: spl0_2 false, sK0 not isolated at the hub.
     _M(
-        'hub_space_printed_tff_avatar',
-        'tff(f31,plain,(\n  $false | ~spl0_2),',
-        'tff(f31,plain,(\n  $false | spl0_2),',
-        'f31', 'countermodel',
+        "hub_space_printed_tff_avatar",
+        "tff(f31,plain,(\n  $false | ~spl0_2),",
+        "tff(f31,plain,(\n  $false | spl0_2),",
+        "f31", "countermodel",
     ),
     # Typed naming: the folded definition negated.  Counter-model: one user in
     # one group granted the one document: sP0 and can_read both true.
     _M(
-        'document_access_printed_tff_naming',
-        'tff(f10,plain,(\n  ! [X0 : user,X1 : doc] : (can_read(X0,X1) <=> sP0(X1,X0))),',
-        'tff(f10,plain,(\n  ! [X0 : user,X1 : doc] : (can_read(X0,X1) <=> ~sP0(X1,X0))),',
-        'f10', 'countermodel',
+        "document_access_printed_tff_naming",
+        "tff(f10,plain,(\n  ! [X0 : user,X1 : doc] : (can_read(X0,X1) <=> sP0(X1,X0))),",
+        "tff(f10,plain,(\n  ! [X0 : user,X1 : doc] : (can_read(X0,X1) <=> ~sP0(X1,X0))),",
+        "f10", "countermodel",
     ),
     # Pure predicate removal that keeps a pure predicate as a conjunct.
     # Counter-model: one record, in the inbox, logged and reviewed, not flagged.
     _M(
-        'archive_inbox_printed_pure_predicates',
-        'fof(f9,plain,( ! [X0] : (member(X0,inbox) => logged(X0)) ),inference(pure_predicate_removal,[],[f3])).',
-        'fof(f9,plain,( ! [X0] : (member(X0,inbox) => (logged(X0) & flagged(X0))) ),inference(pure_predicate_removal,[],[f3])).',
-        'f9', 'countermodel',
+        "archive_inbox_printed_pure_predicates",
+        "fof(f9,plain,( ! [X0] : (member(X0,inbox) => logged(X0)) ),inference(pure_predicate_removal,[],[f3])).",
+        "fof(f9,plain,( ! [X0] : (member(X0,inbox) => (logged(X0) & flagged(X0))) ),inference(pure_predicate_removal,[],[f3])).",
+        "f9", "countermodel",
     ),
     # A definition weakened to the wrong direction.  Counter-model: one record,
     # logged, not signed, not audited.
     _M(
-        'archive_inbox_printed_pure_predicates',
-        'fof(f10,plain,( ! [X0] : ((logged(X0) & signed(X0)) => audited(X0)) ),inference(unused_predicate_definition_removal,[],[f1])).',
-        'fof(f10,plain,( ! [X0] : ((logged(X0) | signed(X0)) => audited(X0)) ),inference(unused_predicate_definition_removal,[],[f1])).',
-        'f10', 'countermodel',
+        "archive_inbox_printed_pure_predicates",
+        "fof(f10,plain,( ! [X0] : ((logged(X0) & signed(X0)) => audited(X0)) ),inference(unused_predicate_definition_removal,[],[f1])).",
+        "fof(f10,plain,( ! [X0] : ((logged(X0) | signed(X0)) => audited(X0)) ),inference(unused_predicate_definition_removal,[],[f1])).",
+        "f10", "countermodel",
     ),
     # Equality factoring whose claim contradicts its premise `sK0 = sK2`:
     # every model of the premise (sK0 = sK2) falsifies it.
     _M(
-        'badge_pairs_printed_equality_factoring',
-        'cnf(f15,plain,( sK0 != sK0 | sK2 = sK0 ),inference(equality_factoring,[],[f14])).',
-        'cnf(f15,plain,( sK0 != sK0 | sK2 != sK0 ),inference(equality_factoring,[],[f14])).',
-        'f15', 'countermodel',
+        "badge_pairs_printed_equality_factoring",
+        "cnf(f15,plain,( sK0 != sK0 | sK2 = sK0 ),inference(equality_factoring,[],[f14])).",
+        "cnf(f15,plain,( sK0 != sK0 | sK2 != sK0 ),inference(equality_factoring,[],[f14])).",
+        "f15", "countermodel",
     ),
     # Truth constants removed with the equation negated.  Counter-model: one
     # zone, its own closure, closed.
     _M(
-        'zoning_closure_printed_tff_fool',
-        'tff(f8,plain,( ! [X0 : zone] : (closed(X0) <=> closure(X0) = X0) ),inference(true_and_false_elimination,[],[f7])).',
-        'tff(f8,plain,( ! [X0 : zone] : (closed(X0) <=> closure(X0) != X0) ),inference(true_and_false_elimination,[],[f7])).',
-        'f8', 'countermodel',
+        "zoning_closure_printed_tff_fool",
+        "tff(f8,plain,( ! [X0 : zone] : (closed(X0) <=> closure(X0) = X0) ),inference(true_and_false_elimination,[],[f7])).",
+        "tff(f8,plain,( ! [X0 : zone] : (closed(X0) <=> closure(X0) != X0) ),inference(true_and_false_elimination,[],[f7])).",
+        "f8", "countermodel",
     ),
     # A definition unfolded without its outer complement.  Counter-model: two
     # zones, complement swaps them, interior the identity, every zone closed.
     _M(
-        'zoning_closure_printed_tff_fool',
-        'tff(f9,plain,( ! [X0 : zone] : (closed(X0) <=> complement(interior(complement(X0))) = X0) ),inference(definition_unfolding,[],[f8,f1])).',
-        'tff(f9,plain,( ! [X0 : zone] : (closed(X0) <=> interior(complement(X0)) = X0) ),inference(definition_unfolding,[],[f8,f1])).',
-        'f9', 'countermodel',
+        "zoning_closure_printed_tff_fool",
+        "tff(f9,plain,( ! [X0 : zone] : (closed(X0) <=> complement(interior(complement(X0))) = X0) ),inference(definition_unfolding,[],[f8,f1])).",
+        "tff(f9,plain,( ! [X0 : zone] : (closed(X0) <=> interior(complement(X0)) = X0) ),inference(definition_unfolding,[],[f8,f1])).",
+        "f9", "countermodel",
     ),
     # A contradiction resting on two split symbols turned into a clause with
     # one.  Counter-model: spl0_0 true, spl0_2 false.
     _M(
-        'valve_modes_printed_avatar_pairs',
-        'cnf(f26,plain,( ~spl0_0 | ~spl0_2 ),inference(avatar_contradiction_clause,[],[f25])).',
-        'cnf(f26,plain,( ~spl0_0 ),inference(avatar_contradiction_clause,[],[f25])).',
-        'f26', 'countermodel',
+        "valve_modes_printed_avatar_pairs",
+        "cnf(f26,plain,( ~spl0_0 | ~spl0_2 ),inference(avatar_contradiction_clause,[],[f25])).",
+        "cnf(f26,plain,( ~spl0_0 ),inference(avatar_contradiction_clause,[],[f25])).",
+        "f26", "countermodel",
     ),
     # Global subsumption without the negated goal it needs.  Counter-model:
     # the gateway live and not muted.
     _M(
-        'relay_chain_printed_global_subsumption',
-        'cnf(f21,plain,( muted(gateway) ),inference(global_subsumption,[],[f16,f14])).',
-        'cnf(f21,plain,( muted(gateway) ),inference(global_subsumption,[],[f16])).',
-        'f21', 'countermodel',
+        "relay_chain_printed_global_subsumption",
+        "cnf(f21,plain,( muted(gateway) ),inference(global_subsumption,[],[f16,f14])).",
+        "cnf(f21,plain,( muted(gateway) ),inference(global_subsumption,[],[f16])).",
+        "f21", "countermodel",
     ),
     # A Skolem clause with the wrong sign of its witness's literal.
     # Counter-model (the only pairing, sK0 for the existential of f7): sP0 false,
     # sK0(x) open, its preimage not open.
     _M(
-        'transit_map_printed_naming_skolem_clauses',
-        'cnf(f10,plain,( sP0(X0) | ~open(preimage(X0,sK0(X0))) ),inference(cnf_transformation,[],[f7])).',
-        'cnf(f10,plain,( sP0(X0) | open(preimage(X0,sK0(X0))) ),inference(cnf_transformation,[],[f7])).',
-        'f10', 'countermodel',
+        "transit_map_printed_naming_skolem_clauses",
+        "cnf(f10,plain,( sP0(X0) | ~open(preimage(X0,sK0(X0))) ),inference(cnf_transformation,[],[f7])).",
+        "cnf(f10,plain,( sP0(X0) | open(preimage(X0,sK0(X0))) ),inference(cnf_transformation,[],[f7])).",
+        "f10", "countermodel",
     ),
     # An axiom of choice whose consequent is no instance of its antecedent.
     # Counter-model: a basic cell inside both zones exists, and the second
     # zone is not inside the one chosen.
     _M(
-        'coverage_base_printed_choice_prefix',
-        '(basic(sK0(X0,X1,X2)) & in(X2,sK0(X0,X1,X2)) & sub(sK0(X0,X1,X2),X0) & sub(sK0(X0,X1,X2),X1))) ),introduced',
-        '(basic(sK0(X0,X1,X2)) & in(X2,sK0(X0,X1,X2)) & sub(sK0(X0,X1,X2),X0) & sub(X1,sK0(X0,X1,X2)))) ),introduced',
-        'f8', 'countermodel',
+        "coverage_base_printed_choice_prefix",
+        "(basic(sK0(X0,X1,X2)) & in(X2,sK0(X0,X1,X2)) & sub(sK0(X0,X1,X2),X0) & sub(sK0(X0,X1,X2),X1))) ),introduced",
+        "(basic(sK0(X0,X1,X2)) & in(X2,sK0(X0,X1,X2)) & sub(sK0(X0,X1,X2),X0) & sub(X1,sK0(X0,X1,X2)))) ),introduced",
+        "f8", "countermodel",
     ),
     # Superposition of commutativity into the absorption law, with the wrong
     # right side.  Counter-model: two rotas, overlap constantly 0, merge(x,y) = x.
     _M(
-        'shift_rota_printed_superposition_chain',
-        'cnf(f18,plain,( merge(X1,overlap(X0,X1)) = X1 ),inference(superposition,[],[f11,f9])).',
-        'cnf(f18,plain,( merge(X1,overlap(X0,X1)) = X0 ),inference(superposition,[],[f11,f9])).',
-        'f18', 'countermodel',
+        "shift_rota_printed_superposition_chain",
+        "cnf(f18,plain,( merge(X1,overlap(X0,X1)) = X1 ),inference(superposition,[],[f11,f9])).",
+        "cnf(f18,plain,( merge(X1,overlap(X0,X1)) = X0 ),inference(superposition,[],[f11,f9])).",
+        "f18", "countermodel",
     ),
     # A rewrite that drops the label.  Counter-model: label constantly 0 and
     # sK0 = sK1 = sK2 = 1.
     _M(
-        'class_labels_printed_backward_demodulation',
-        'cnf(f17,plain,( label(sK0) = label(sK2) ),inference(backward_demodulation,[],[f16,f15])).',
-        'cnf(f17,plain,( label(sK0) = sK2 ),inference(backward_demodulation,[],[f16,f15])).',
-        'f17', 'countermodel',
+        "class_labels_printed_backward_demodulation",
+        "cnf(f17,plain,( label(sK0) = label(sK2) ),inference(backward_demodulation,[],[f16,f15])).",
+        "cnf(f17,plain,( label(sK0) = sK2 ),inference(backward_demodulation,[],[f16,f15])).",
+        "f17", "countermodel",
     ),
     # Factoring that does not unify the two literals.  Counter-model: two staff,
     # a not on call and closed, b on call and not closed (a, b for X0, X1).
     _M(
-        'desk_rota_printed_factoring',
-        'cnf(f9,plain,( on_call(X0) | closed(X0) ),inference(factoring,[],[f6])).',
-        'cnf(f9,plain,( on_call(X0) | closed(X1) ),inference(factoring,[],[f6])).',
-        'f9', 'countermodel',
+        "desk_rota_printed_factoring",
+        "cnf(f9,plain,( on_call(X0) | closed(X0) ),inference(factoring,[],[f6])).",
+        "cnf(f9,plain,( on_call(X0) | closed(X1) ),inference(factoring,[],[f6])).",
+        "f9", "countermodel",
     ),
     # A restated leaf with the equation negated: not the problem's `memo_owner`.
     _M(
-        'clearance_printed_tff_ground_equation',
+        "clearance_printed_tff_ground_equation",
         "tff(f2,axiom,( bob = owner(memo) ),file('problem.p',memo_owner)).",
         "tff(f2,axiom,( bob != owner(memo) ),file('problem.p',memo_owner)).",
-        'f2', 'not_in_problem',
+        "f2", "not_in_problem",
     ),
     # A clause of the Skolemized negation that contradicts the first.
     # Counter-model: sk__3 symmetric, its inverse not.
     _M(
-        'inverse_links_printed_quoted_rules',
-        'cnf(zip_derived_cl6, negated_conjecture, (~ symmetric(inverse(sk__3)))',
-        'cnf(zip_derived_cl6, negated_conjecture, (~ symmetric(sk__3))',
-        'zip_derived_cl6', 'countermodel',
+        "inverse_links_printed_quoted_rules",
+        "cnf(zip_derived_cl6, negated_conjecture, (~ symmetric(inverse(sk__3)))",
+        "cnf(zip_derived_cl6, negated_conjecture, (~ symmetric(sk__3))",
+        "zip_derived_cl6", "countermodel",
     ),
     # The second clause of the Skolemized negation with the Skolem constants
     # swapped: with the first it is not the negation Skolemized.  Counter-model:
     # sk__1 in its tag set, sk__2 in sk__3's, sk__3 not in sk__2's.
     _M(
-        'singleton_tags_printed_tff_quoted_rules',
-        'tff(zip_derived_cl3, negated_conjecture, (~ in(sk__1, tags(sk__1)) | ~ in(sk__3, tags(sk__2)))',
-        'tff(zip_derived_cl3, negated_conjecture, (~ in(sk__1, tags(sk__1)) | ~ in(sk__2, tags(sk__3)))',
-        'zip_derived_cl3', 'witness_reused',
+        "singleton_tags_printed_tff_quoted_rules",
+        "tff(zip_derived_cl3, negated_conjecture, (~ in(sk__1, tags(sk__1)) | ~ in(sk__3, tags(sk__2)))",
+        "tff(zip_derived_cl3, negated_conjecture, (~ in(sk__1, tags(sk__1)) | ~ in(sk__2, tags(sk__3)))",
+        "zip_derived_cl3", "witness_reused",
     ),
     # Nested records: two clauses name the same witness with its arguments
     # swapped.  Counter-model: two plans, each holding the other (in = {(0,1),
     # (1,0)}), neither fitting the other, sk_1(1,0) = 0, sk_1(0,1) = 1 (the
     # witnesses 11 needs); 12 fails at X1 = 1, X2 = 0.
     _M(
-        'storage_power_printed_nested_skolem',
-        'cnf(12, plain, (fits(X1,X2) | ~in(sk_1(X1,X2),X2))',
-        'cnf(12, plain, (fits(X1,X2) | ~in(sk_1(X2,X1),X2))',
-        '12', 'witness_reused',
+        "storage_power_printed_nested_skolem",
+        "cnf(12, plain, (fits(X1,X2) | ~in(sk_1(X1,X2),X2))",
+        "cnf(12, plain, (fits(X1,X2) | ~in(sk_1(X2,X1),X2))",
+        "12", "witness_reused",
     ),
     # The negated conjecture under nested records with its constants swapped.
     # Counter-model: sk_2 = 0, sk_3 = 1, options swaps them, fits = {(0,1)}.
     _M(
-        'storage_power_printed_nested_skolem',
-        'cnf(16, negated_conjecture, (~fits(options(sk_2),options(sk_3)))',
-        'cnf(16, negated_conjecture, (~fits(options(sk_3),options(sk_2)))',
-        '16', 'witness_reused',
+        "storage_power_printed_nested_skolem",
+        "cnf(16, negated_conjecture, (~fits(options(sk_2),options(sk_3)))",
+        "cnf(16, negated_conjecture, (~fits(options(sk_3),options(sk_2)))",
+        "16", "witness_reused",
     ),
     # A restated leaf that is not the problem's `pool_def`: a part in pool(a,b)
     # because it is in a, not in b.
     _M(
-        'parts_bins_printed_restated_leaves',
-        '(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X1)))',
-        '(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X2)))',
-        'f3', 'not_in_problem',
+        "parts_bins_printed_restated_leaves",
+        "(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X1)))",
+        "(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X2)))",
+        "f3", "not_in_problem",
     ),
     # Nested axioms of choice: the inner witness put inside the outer one of
     # the other variable.  Counter-model: two cells a, b, every cell open,
