@@ -170,18 +170,29 @@ def _with_choice_instances(premises: Sequence[Formula]) -> list[Formula]:
     the kernel), the other premises with its quantifier replaced by its
     witnesses.  Under the axiom the quantified formula and its instance are
     equivalent, so these follow from the premises; they spare the search a
-    long detour through the axiom's clauses."""
-    extra: list[Formula] = []
+    long detour through the axiom's clauses.  An axiom whose quantifier
+    mentions another's witness (a nested existential, ``sub(X3,sK0(X0))``)
+    applies to what the other's replacement made, so the replacements are
+    repeated on their own results, once per axiom at most."""
+    axioms: list[tuple[Formula, Formula, dict]] = []
     for axiom in premises:
         parts = _choice_parts(axiom)
-        if parts is None or check_choice_axiom(axiom, parts[1]) is not None:
-            continue
-        quantifier, witnesses = parts
-        for premise in premises:
-            replaced = skolemize(premise, quantifier, witnesses) if premise is not axiom else None
-            if isinstance(replaced, Formula):
-                extra.append(replaced)
-    return [*premises, *extra]
+        if parts is not None and check_choice_axiom(axiom, parts[1]) is None:
+            axioms.append((axiom, *parts))
+    known = list(premises)
+    frontier = list(premises)
+    for _ in axioms:
+        made: list[Formula] = []
+        for axiom, quantifier, witnesses in axioms:
+            for premise in frontier:
+                replaced = skolemize(premise, quantifier, witnesses) if premise is not axiom else None
+                if isinstance(replaced, Formula) and replaced not in known and replaced not in made:
+                    made.append(replaced)
+        if not made:
+            break
+        known += made
+        frontier = made
+    return known
 
 
 def check_introduction(
@@ -553,7 +564,10 @@ def check_negated_conjecture(
     ):
         return step_result(step, RECONSTRUCTED, "the negation of the conjecture")
     new = new_symbols(claimed, [conjecture])
-    if new and not new & _predicates(claimed) and table.freshness_failure(step.name, new) is None:
+    # The clauses of one Skolemized negation, each a step citing the
+    # conjecture, introduce their symbols together.
+    peers = table.co_introducers(step.name, new) if new else []
+    if new and not new & _predicates(claimed) and table.freshness_failure(step.name, new, peers) is None:
         # Negated and Skolemized in one step.
         return check_introduction(step, [negated], claimed, [conjecture], table, limits)
     forward = check_consequence(step, [negated], conclusion, limits, what="follows from the negation of the conjecture")

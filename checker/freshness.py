@@ -80,20 +80,41 @@ class SymbolTable:
         of its new symbols, and theirs in turn, in checking order: clause-form
         conversion writes each clause of one Skolemized formula as a step of
         its own.  Their claims hold together or not at all, so they are
-        checked as one introduction."""
+        checked as one introduction.  Parents are compared as the stated
+        statements they rest on: a prover that writes each clause with its
+        chain of formula steps as nested records gives every clause nested
+        parents of its own."""
         if not self.parents.get(step):
             return []  # leaves introduce alone
         group = {step}
         symbols = set(new_symbols)
         pending = list(symbols)
+        stated_parents = self.stated_parents(step)
         while pending:
             for other in self.introducers.get(pending.pop(), ()):
-                if other not in group and self.parents.get(other) == self.parents.get(step):
+                if other not in group and self.stated_parents(other) == stated_parents:
                     group.add(other)
                     added = set(self.introducers_of(other)) - symbols
                     symbols |= added
                     pending.extend(added)
         return sorted(group - {step}, key=self.order.__getitem__)
+
+    def stated_parents(self, step: str) -> tuple[str, ...]:
+        """The stated statements ``step`` rests on, through its unstated
+        (nested) parents, sorted."""
+        found: set[str] = set()
+        seen: set[str] = set()
+        stack = list(self.parents.get(step, ()))
+        while stack:
+            parent = stack.pop()
+            if parent in seen:
+                continue
+            seen.add(parent)
+            if parent in self.contents:
+                found.add(parent)
+            else:
+                stack.extend(self.parents.get(parent, ()))
+        return tuple(sorted(found))
 
     def introducers_of(self, step: str) -> list[Symbol]:
         return self.introduced_by.get(step, [])

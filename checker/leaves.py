@@ -23,7 +23,7 @@ from functools import lru_cache
 from checker.formula_steps import as_formula, check_introduced_leaf
 from checker.freshness import SymbolTable
 from checker.kernel.clauses import Clause
-from checker.kernel.entailment import check_entailment
+from checker.kernel.entailment import Cover, check_entailment
 from checker.kernel.formulas import Formula, alpha_equivalent, symbols_of_formula
 from checker.kernel.rules import Chain, check_conclusion
 from checker.outcomes import (
@@ -34,7 +34,7 @@ from checker.outcomes import (
     StepResult,
 )
 from checker.plan import Step
-from checker.search.entailment import find_entailment
+from checker.search.entailment import find_consequence
 from checker.search.reconstruct import DEFAULT_LIMITS, SearchLimits
 from checker.search.restatement import restates, shape_of
 from checker.search.subsumption import find_theta
@@ -65,15 +65,18 @@ def restated(problem_content: Clause | Formula, leaf_content: Clause | Formula, 
     return restates(shape_of(as_formula(problem_content)), shape_of(as_formula(leaf_content)), limits.subsumption_nodes)
 
 
-def entailment(premise: Clause | Formula, conclusion: Clause | Formula, limits: SearchLimits) -> Chain | None:
-    """A refutation, replayed by the kernel, showing premise ⊨ conclusion;
-    None when none is found within the bounds."""
+def entailment(premise: Clause | Formula, conclusion: Clause | Formula, limits: SearchLimits) -> Chain | Cover | None:
+    """A cover or a refutation, checked by the kernel, showing premise ⊨
+    conclusion; None when none is found within the bounds.  A restatement
+    that reorders the sides of a disjunction under an equivalence has the
+    same clauses, which a cover matches at once, where the refutation
+    search must split cases through the definitions the clausifier names."""
     return _entailment(as_formula(premise), as_formula(conclusion), limits)
 
 
 def _confirmed(
     premise: Clause | Formula, conclusion: Clause | Formula, limits: SearchLimits, proposed: bool
-) -> Chain | None:
+) -> Chain | Cover | None:
     """An entailment, searched further when the conclusion restates the premise."""
     chain = entailment(premise, conclusion, limits)
     if chain is None and proposed:
@@ -82,10 +85,10 @@ def _confirmed(
 
 
 @lru_cache(maxsize=256)
-def _entailment(premise: Formula, conclusion: Formula, limits: SearchLimits) -> Chain | None:
+def _entailment(premise: Formula, conclusion: Formula, limits: SearchLimits) -> Chain | Cover | None:
     # Cached: the same conjecture is compared for its leaf, for each step
     # that negates it, and when the report names it.
-    chain = find_entailment([premise], conclusion, limits)
+    chain = find_consequence([premise], conclusion, limits)
     return chain if chain is not None and check_entailment([premise], conclusion, chain) is None else None
 
 
@@ -106,7 +109,7 @@ def _equivalence(
     if not back:
         return None
     how = "restated" if proposed else "equivalent"
-    return f", {how} (kernel replayed refutations both ways, in {_inferences(there)} and {_inferences(back)})"
+    return f", {how} (kernel checked both ways: {_inferences(there)} and {_inferences(back)})"
 
 
 def equivalent_content(
@@ -120,8 +123,10 @@ def equivalent_content(
     return _equivalence(problem_content, leaf_content, limits) is not None
 
 
-def _inferences(chain: Chain) -> str:
-    return f"{len(chain.steps)} inference{'s' if len(chain.steps) != 1 else ''}"
+def _inferences(chain: Chain | Cover) -> str:
+    if isinstance(chain, Cover):
+        return "a cover (each clause subsumed by one of the other side's)"
+    return f"a refutation in {len(chain.steps)} inference{'s' if len(chain.steps) != 1 else ''}"
 
 
 def _fail(step: Step, message: str, reason: str) -> StepResult:
@@ -230,7 +235,7 @@ def _check_axiom_leaf(step: Step, inputs: _ProblemInputs, cited: str, limits: Se
         chain = _confirmed(candidate.content, content, limits, is_restated)
         if chain is not None:
             how = ", restated" if is_restated else ", as a consequence"
-            return _checked(step, candidate, cited, f"{how} (kernel replayed a refutation in {_inferences(chain)})")
+            return _checked(step, candidate, cited, f"{how} (kernel checked {_inferences(chain)})")
         if is_restated and unconfirmed is None:
             unconfirmed = candidate
     if stated_conjecture is not None:

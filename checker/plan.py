@@ -14,6 +14,8 @@ import heapq
 import os
 from dataclasses import dataclass, replace
 
+from checker.kernel.clauses import Clause
+from checker.kernel.formulas import FALSE
 from checker.outcomes import FAILED, StepResult
 from formats.derivation import Document, Inference, Location, Origin, Parent, Statement
 
@@ -187,27 +189,43 @@ def make_plan(document: Document) -> Plan:
 
 def _parents_first(steps: list[Step]) -> tuple[list[Step], list[Step]]:
     """Kahn's algorithm, taking the earliest written step whenever several
-    are ready; returns the ordered steps and those left on a cycle."""
+    are ready, or the latest when the derivation is written refutation
+    first (it opens with a step that concludes `$false`, and more parents
+    are written after their children than before, as in published
+    solutions), so that it is checked in the order it was found: an axiom
+    of choice before the split definitions that mention its witnesses.
+    Returns the ordered steps and those left on a cycle."""
     index = {step.name: number for number, step in enumerate(steps)}
     waiting = {step.name: 0 for step in steps}
     children: dict[str, list[str]] = {step.name: [] for step in steps}
+    written_after = 0
     for step in steps:
         for parent in set(step.parents):
             if parent in index:
                 waiting[step.name] += 1
                 children[parent].append(step.name)
-    ready = [index[name] for name, count in waiting.items() if count == 0]
+                written_after += 1 if index[parent] > index[step.name] else -1
+    sign = -1 if written_after > 0 and steps and _refutes(steps[0]) else 1
+    ready = [sign * index[name] for name, count in waiting.items() if count == 0]
     heapq.heapify(ready)
     ordered: list[Step] = []
     while ready:
-        step = steps[heapq.heappop(ready)]
+        step = steps[sign * heapq.heappop(ready)]
         ordered.append(step)
         for child in children[step.name]:
             waiting[child] -= 1
             if waiting[child] == 0:
-                heapq.heappush(ready, index[child])
+                heapq.heappush(ready, sign * index[child])
     placed = {step.name for step in ordered}
     return ordered, [step for step in steps if step.name not in placed]
+
+
+def _refutes(step: Step) -> bool:
+    """Whether ``step`` is an inference concluding the empty clause or `$false`."""
+    if step.statement is None or step.is_leaf:
+        return False
+    content = step.statement.content
+    return content.is_empty if isinstance(content, Clause) else content.connective == FALSE
 
 
 def _cycle_from(start: Step, by_name: dict[str, Step], stuck: set[str]) -> list[str]:

@@ -25,10 +25,13 @@ from functools import lru_cache
 
 from checker.kernel.clauses import Clause
 from checker.kernel.entailment import check_entailment
+from checker.kernel.clausify import chain_operands
 from checker.kernel.formulas import (
     ATOM,
+    EXISTS,
     FORALL,
     IFF,
+    OR,
     Formula,
     atomic,
     binary,
@@ -41,6 +44,7 @@ from checker.kernel.formulas import (
 from checker.kernel.terms import Term, application
 from checker.search.entailment import find_entailment
 from checker.search.findings import DEFINITION, hook
+from checker.search.miniscoping import miniscoped
 from checker.search.reconstruct import SearchLimits
 
 Symbol = tuple[str, int]
@@ -109,10 +113,35 @@ def proposals(
     symbol: Symbol, premises: Sequence[Clause | Formula], conclusion: Clause | Formula
 ) -> list[Formula]:
     """Definitions of ``symbol`` by subformulas of the premises, at most
-    :data:`CANDIDATES`: non-atomic subformulas of the polarity the name has
-    in the conclusion first, innermost first; atoms last."""
+    :data:`CANDIDATES`, then as many by subformulas of the premises
+    miniscoped: a prover that splits a clause into variable-disjoint
+    components names a component (``! [X1] : open_air(X1)`` of
+    ``pressurised(X0) | open_air(X1)``), which is a subformula only once
+    the clause's quantifiers are pushed inward."""
+    closed = [_closed(p) for p in premises]
+    found = _proposals(symbol, closed, conclusion)
+    components = [c for p in closed for c in _components(miniscoped(p)) if c not in closed]
+    if components:
+        found += [d for d in _proposals(symbol, components, conclusion) if d not in found]
+    return found
+
+
+def _components(formula: Formula) -> list[Formula]:
+    """The quantified operands of the disjunctions of ``formula``: once a
+    clause is miniscoped, its variable-disjoint components."""
+    found: list[Formula] = []
+    for subformula, _ in subformulas_with_polarity(formula):
+        if subformula.connective == OR:
+            found += [part for part in chain_operands(subformula) if part.connective in (FORALL, EXISTS)]
+    return found
+
+
+def _proposals(symbol: Symbol, premises: Sequence[Formula], conclusion: Clause | Formula) -> list[Formula]:
+    """Definitions by subformulas of ``premises``, at most :data:`CANDIDATES`:
+    non-atomic subformulas of the polarity the name has in the conclusion
+    first, innermost first; atoms last."""
     name, arity = symbol
-    premises, conclusion = [_closed(p) for p in premises], _closed(conclusion)
+    conclusion = _closed(conclusion)
     applied = [atom.arguments for atom in _applications(symbol, conclusion)]
     signs = {p for f, p in subformulas_with_polarity(conclusion) if f.atom is not None and (f.atom.symbol, f.atom.arity) == symbol}
     pairing = _pairings(premises, conclusion)

@@ -11,11 +11,12 @@ at that step with a stable reason code.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from pathlib import Path
 
 import pytest
 
-from checker.outcomes import ACCEPTED, FAILED, REFUTED, REJECTED
+from checker.outcomes import ACCEPTED, FAILED, REFUTED, REJECTED, UNPROVEN
 from checker.run import check
 
 STYLES = Path(__file__).resolve().parents[2] / "fixtures" / "tptp" / "styles"
@@ -198,3 +199,352 @@ def test_the_trust_summary_lists_skolem_symbols_not_the_predicates_of_choice_axi
     assert [(i.symbol, i.step) for i in report.introduced] == [
         ("sK0/2", "f9"), ("sK1/0", "f11"), ("sK2/0", "f11"), ("sK3/0", "f11"),
     ]
+
+
+# Hand-written derivations in the published conventions of further provers
+# (folders `*_printed_*` added with them), one single-change mutant per
+# feature they exercise: each must be rejected at the changed step with a
+# stable reason.  Expected verdicts by construction: each comment gives a
+# counter-model of the changed step's claim (premises true, claim false) or
+# says why the leaf is not the problem's.
+
+
+@dataclass(frozen=True, slots=True)
+class _M:
+    folder: str
+    old: str
+    new: str
+    step: str
+    reason: str
+
+
+MUTANTS = [
+    # Typed, two sorts: the converse of the resolvent of f16 and f21.  Counter-model:
+    # one item, on the depot list sK3 but not on sK1, sK1 covered by sK3.
+    _M(
+        "stock_lists_union_printed_tff_sorts",
+        "tff(f26,plain,(\n  ! [X0 : item] : (on(X0,sK3) | ~on(X0,sK1))),",
+        "tff(f26,plain,(\n  ! [X0 : item] : (on(X0,sK1) | ~on(X0,sK3))),",
+        "f26", "countermodel",
+    ),
+    # Typed, one sort, backward demodulation into the wrong side.  Counter-model:
+    # overlap(x,y) = y, interior constantly 0, sK0 = 0, sK1 = 1.
+    _M(
+        "survey_interior_printed_tff_demodulation",
+        "tff(f25,plain,(\n  overlap(sK0,interior(sK1)) != overlap(sK0,sK1)),",
+        "tff(f25,plain,(\n  overlap(sK0,interior(sK1)) != overlap(sK1,sK0)),",
+        "f25", "countermodel",
+    ),
+    # thf: symmetry gives link(sK0(X),X), not link(sK0(X),sK0(X)).  Counter-model:
+    # two routers, sK0 swaps them, link holds between distinct routers only.
+    _M(
+        "peer_links_printed_thf_first_order",
+        "thf(f18,plain,(\n  ! [X0 : router] : (link @ (sK0 @ X0) @ X0)),",
+        "thf(f18,plain,(\n  ! [X0 : router] : (link @ (sK0 @ X0) @ (sK0 @ X0))),",
+        "f18", "countermodel",
+    ),
+    # Typed AVATAR: the contradiction under spl0_2 stated with the split symbol
+    # positive.  Counter-model: spl0_2 false, sK0 not isolated at the hub.
+    _M(
+        "hub_space_printed_tff_avatar",
+        "tff(f31,plain,(\n  $false | ~spl0_2),",
+        "tff(f31,plain,(\n  $false | spl0_2),",
+        "f31", "countermodel",
+    ),
+    # Typed naming: the folded definition negated.  Counter-model: one user in
+    # one group granted the one document: sP0 and can_read both true.
+    _M(
+        "document_access_printed_tff_naming",
+        "tff(f10,plain,(\n  ! [X0 : user,X1 : doc] : (can_read(X0,X1) <=> sP0(X1,X0))),",
+        "tff(f10,plain,(\n  ! [X0 : user,X1 : doc] : (can_read(X0,X1) <=> ~sP0(X1,X0))),",
+        "f10", "countermodel",
+    ),
+    # Pure predicate removal that keeps a pure predicate as a conjunct.
+    # Counter-model: one record, in the inbox, logged and reviewed, not flagged.
+    _M(
+        "archive_inbox_printed_pure_predicates",
+        "fof(f9,plain,( ! [X0] : (member(X0,inbox) => logged(X0)) ),inference(pure_predicate_removal,[],[f3])).",
+        "fof(f9,plain,( ! [X0] : (member(X0,inbox) => (logged(X0) & flagged(X0))) ),inference(pure_predicate_removal,[],[f3])).",
+        "f9", "countermodel",
+    ),
+    # A definition weakened to the wrong direction.  Counter-model: one record,
+    # logged, not signed, not audited.
+    _M(
+        "archive_inbox_printed_pure_predicates",
+        "fof(f10,plain,( ! [X0] : ((logged(X0) & signed(X0)) => audited(X0)) ),inference(unused_predicate_definition_removal,[],[f1])).",
+        "fof(f10,plain,( ! [X0] : ((logged(X0) | signed(X0)) => audited(X0)) ),inference(unused_predicate_definition_removal,[],[f1])).",
+        "f10", "countermodel",
+    ),
+    # Equality factoring whose claim contradicts its premise `sK0 = sK2`:
+    # every model of the premise (sK0 = sK2) falsifies it.
+    _M(
+        "badge_pairs_printed_equality_factoring",
+        "cnf(f15,plain,( sK0 != sK0 | sK2 = sK0 ),inference(equality_factoring,[],[f14])).",
+        "cnf(f15,plain,( sK0 != sK0 | sK2 != sK0 ),inference(equality_factoring,[],[f14])).",
+        "f15", "countermodel",
+    ),
+    # Truth constants removed with the equation negated.  Counter-model: one
+    # zone, its own closure, closed.
+    _M(
+        "zoning_closure_printed_tff_fool",
+        "tff(f8,plain,( ! [X0 : zone] : (closed(X0) <=> closure(X0) = X0) ),inference(true_and_false_elimination,[],[f7])).",
+        "tff(f8,plain,( ! [X0 : zone] : (closed(X0) <=> closure(X0) != X0) ),inference(true_and_false_elimination,[],[f7])).",
+        "f8", "countermodel",
+    ),
+    # A definition unfolded without its outer complement.  Counter-model: two
+    # zones, complement swaps them, interior the identity, every zone closed.
+    _M(
+        "zoning_closure_printed_tff_fool",
+        "tff(f9,plain,( ! [X0 : zone] : (closed(X0) <=> complement(interior(complement(X0))) = X0) ),inference(definition_unfolding,[],[f8,f1])).",
+        "tff(f9,plain,( ! [X0 : zone] : (closed(X0) <=> interior(complement(X0)) = X0) ),inference(definition_unfolding,[],[f8,f1])).",
+        "f9", "countermodel",
+    ),
+    # A contradiction resting on two split symbols turned into a clause with
+    # one.  Counter-model: spl0_0 true, spl0_2 false.
+    _M(
+        "valve_modes_printed_avatar_pairs",
+        "cnf(f26,plain,( ~spl0_0 | ~spl0_2 ),inference(avatar_contradiction_clause,[],[f25])).",
+        "cnf(f26,plain,( ~spl0_0 ),inference(avatar_contradiction_clause,[],[f25])).",
+        "f26", "countermodel",
+    ),
+    # Global subsumption without the negated goal it needs.  Counter-model:
+    # the gateway live and not muted.
+    _M(
+        "relay_chain_printed_global_subsumption",
+        "cnf(f21,plain,( muted(gateway) ),inference(global_subsumption,[],[f16,f14])).",
+        "cnf(f21,plain,( muted(gateway) ),inference(global_subsumption,[],[f16])).",
+        "f21", "countermodel",
+    ),
+    # A Skolem clause with the wrong sign of its witness's literal.
+    # Counter-model (the only pairing, sK0 for the existential of f7): sP0 false,
+    # sK0(x) open, its preimage not open.
+    _M(
+        "transit_map_printed_naming_skolem_clauses",
+        "cnf(f10,plain,( sP0(X0) | ~open(preimage(X0,sK0(X0))) ),inference(cnf_transformation,[],[f7])).",
+        "cnf(f10,plain,( sP0(X0) | open(preimage(X0,sK0(X0))) ),inference(cnf_transformation,[],[f7])).",
+        "f10", "countermodel",
+    ),
+    # An axiom of choice whose consequent is no instance of its antecedent.
+    # Counter-model: a basic cell inside both zones exists, and the second
+    # zone is not inside the one chosen.
+    _M(
+        "coverage_base_printed_choice_prefix",
+        "(basic(sK0(X0,X1,X2)) & in(X2,sK0(X0,X1,X2)) & sub(sK0(X0,X1,X2),X0) & sub(sK0(X0,X1,X2),X1))) ),introduced",
+        "(basic(sK0(X0,X1,X2)) & in(X2,sK0(X0,X1,X2)) & sub(sK0(X0,X1,X2),X0) & sub(X1,sK0(X0,X1,X2)))) ),introduced",
+        "f8", "countermodel",
+    ),
+    # Superposition of commutativity into the absorption law, with the wrong
+    # right side.  Counter-model: two rotas, overlap constantly 0, merge(x,y) = x.
+    _M(
+        "shift_rota_printed_superposition_chain",
+        "cnf(f18,plain,( merge(X1,overlap(X0,X1)) = X1 ),inference(superposition,[],[f11,f9])).",
+        "cnf(f18,plain,( merge(X1,overlap(X0,X1)) = X0 ),inference(superposition,[],[f11,f9])).",
+        "f18", "countermodel",
+    ),
+    # A rewrite that drops the label.  Counter-model: label constantly 0 and
+    # sK0 = sK1 = sK2 = 1.
+    _M(
+        "class_labels_printed_backward_demodulation",
+        "cnf(f17,plain,( label(sK0) = label(sK2) ),inference(backward_demodulation,[],[f16,f15])).",
+        "cnf(f17,plain,( label(sK0) = sK2 ),inference(backward_demodulation,[],[f16,f15])).",
+        "f17", "countermodel",
+    ),
+    # Factoring that does not unify the two literals.  Counter-model: two staff,
+    # a not on call and closed, b on call and not closed (a, b for X0, X1).
+    _M(
+        "desk_rota_printed_factoring",
+        "cnf(f9,plain,( on_call(X0) | closed(X0) ),inference(factoring,[],[f6])).",
+        "cnf(f9,plain,( on_call(X0) | closed(X1) ),inference(factoring,[],[f6])).",
+        "f9", "countermodel",
+    ),
+    # A restated leaf with the equation negated: not the problem's `memo_owner`.
+    _M(
+        "clearance_printed_tff_ground_equation",
+        "tff(f2,axiom,( bob = owner(memo) ),file('problem.p',memo_owner)).",
+        "tff(f2,axiom,( bob != owner(memo) ),file('problem.p',memo_owner)).",
+        "f2", "not_in_problem",
+    ),
+    # A clause of the Skolemized negation that contradicts the first.
+    # Counter-model: sk__3 symmetric, its inverse not.
+    _M(
+        "inverse_links_printed_quoted_rules",
+        "cnf(zip_derived_cl6, negated_conjecture, (~ symmetric(inverse(sk__3)))",
+        "cnf(zip_derived_cl6, negated_conjecture, (~ symmetric(sk__3))",
+        "zip_derived_cl6", "countermodel",
+    ),
+    # The second clause of the Skolemized negation with the Skolem constants
+    # swapped: with the first it is not the negation Skolemized.  Counter-model:
+    # sk__1 in its tag set, sk__2 in sk__3's, sk__3 not in sk__2's.
+    _M(
+        "singleton_tags_printed_tff_quoted_rules",
+        "tff(zip_derived_cl3, negated_conjecture, (~ in(sk__1, tags(sk__1)) | ~ in(sk__3, tags(sk__2)))",
+        "tff(zip_derived_cl3, negated_conjecture, (~ in(sk__1, tags(sk__1)) | ~ in(sk__2, tags(sk__3)))",
+        "zip_derived_cl3", "witness_reused",
+    ),
+    # Nested records: two clauses name the same witness with its arguments
+    # swapped.  Counter-model: two plans, each holding the other (in = {(0,1),
+    # (1,0)}), neither fitting the other, sk_1(1,0) = 0, sk_1(0,1) = 1 (the
+    # witnesses 11 needs); 12 fails at X1 = 1, X2 = 0.
+    _M(
+        "storage_power_printed_nested_skolem",
+        "cnf(12, plain, (fits(X1,X2) | ~in(sk_1(X1,X2),X2))",
+        "cnf(12, plain, (fits(X1,X2) | ~in(sk_1(X2,X1),X2))",
+        "12", "witness_reused",
+    ),
+    # The negated conjecture under nested records with its constants swapped.
+    # Counter-model: sk_2 = 0, sk_3 = 1, options swaps them, fits = {(0,1)}.
+    _M(
+        "storage_power_printed_nested_skolem",
+        "cnf(16, negated_conjecture, (~fits(options(sk_2),options(sk_3)))",
+        "cnf(16, negated_conjecture, (~fits(options(sk_3),options(sk_2)))",
+        "16", "witness_reused",
+    ),
+    # A restated leaf that is not the problem's `pool_def`: a part in pool(a,b)
+    # because it is in a, not in b.
+    _M(
+        "parts_bins_printed_restated_leaves",
+        "(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X1)))",
+        "(in(X0,pool(X1,X2)) <=> (in(X0,X2) | in(X0,X2)))",
+        "f3", "not_in_problem",
+    ),
+    # Nested axioms of choice: the inner witness put inside the outer one of
+    # the other variable.  Counter-model: two cells a, b, every cell open,
+    # in = {(a,a), (b,b), (a,b)}, sub the identity, sK0 the identity,
+    # sK1(x,y) = x; at X0 = b, X2 = a the claim wants sub(b,a).
+    _M(
+        "beacon_cells_printed_nested_choice",
+        "((open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK1(X0,X2),sK0(X0))) | ~in(X2,sK0(X0)))",
+        "((open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK1(X0,X2),sK0(X2))) | ~in(X2,sK0(X0)))",
+        "f8", "countermodel",
+    ),
+    # An inner axiom of choice with the inclusion turned round.  Counter-model:
+    # two cells 0 and 1, in and open everywhere, sub = {(0,0), (0,1)}, sK0
+    # swapping them: the witness for X0 = X2 = 0 must be inside sK0(0) = 1,
+    # so it is 0, and 1 is not inside it.
+    _M(
+        "beacon_cells_printed_nested_choice",
+        "(open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK1(X0,X2),sK0(X0)))) ),introduced",
+        "(open(sK1(X0,X2)) & in(X2,sK1(X0,X2)) & sub(sK0(X0),sK1(X0,X2)))) ),introduced",
+        "f7", "countermodel",
+    ),
+    # A split clause that forgets the split symbol its clause rests on.
+    # Counter-model: spl0_0 false, the witness in neither sK1 nor sK2,
+    # spl0_2 and spl0_3 false (as their definitions say).
+    _M(
+        "shared_shelves_printed_avatar_distribution",
+        "cnf(f43,plain,( spl0_2 | spl0_3 | ~spl0_0 )",
+        "cnf(f43,plain,( spl0_2 | spl0_3 )",
+        "f43", "countermodel",
+    ),
+]
+
+
+@pytest.mark.parametrize("mutant", MUTANTS, ids=lambda m: f"{m.folder}:{m.step}")
+def test_a_single_change_to_a_printed_derivation_is_rejected_at_that_step(tmp_path, mutant):
+    report, steps = _mutant(tmp_path, mutant.folder, mutant.old, mutant.new)
+    _rejected_at(report, steps, mutant.step, mutant.reason)
+
+
+# The clauses of a negated conjecture Skolemized one per step, each citing
+# the conjecture, introduce their Skolem constants together (a prover that
+# clausifies the conjecture directly); the second clause was refuted as if
+# its constant were arbitrary.
+
+def test_clauses_of_one_skolemized_negation_are_checked_together():
+    folder = STYLES / "inverse_links_printed_quoted_rules"
+    report = check(str(folder / "proof.p"), str(folder / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "with the 1 earlier step introducing them" in steps["zip_derived_cl6"].message
+
+
+# Clauses written each with its own nested records of formula steps rest
+# on the same stated statement and introduce the same Skolem function: they
+# are co-introducers, not a second introduction (was `not_fresh`).
+
+def test_clauses_with_nested_records_introduce_their_witness_together():
+    folder = STYLES / "storage_power_printed_nested_skolem"
+    report = check(str(folder / "proof.p"), str(folder / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "with the 1 earlier step introducing them" in steps["12"].message
+
+
+def test_a_clause_with_nested_records_from_another_statement_still_introduces_afresh(tmp_path):
+    # Clause 13 rests on `options_def`, not on `fits_def`: a witness `sk_1`
+    # there is a second introduction of the symbol, whatever its records.
+    report, steps = _mutant(
+        tmp_path, "storage_power_printed_nested_skolem",
+        "cnf(13, plain, (~in(X1,options(X2)) | fits(X1,X2))",
+        "cnf(13, plain, (~in(X1,options(X2)) | fits(X1,sk_1(X1,X2)))",
+    )
+    _rejected_at(report, steps, "13", "not_fresh")
+
+
+# A restated leaf that only reorders a disjunction under an equivalence is
+# matched clause by clause (a cover); the refutation search missed it.
+
+def test_a_reordered_leaf_is_shown_by_a_cover():
+    folder = STYLES / "parts_bins_printed_restated_leaves"
+    report = check(str(folder / "proof.p"), str(folder / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "a cover" in steps["f3"].message
+
+
+# A prover that splits a clause into variable-disjoint components may name
+# one by a propositional symbol it never defines; the name is proposed from
+# the clause miniscoped (`! [X1] : open_air(X1)` of
+# `pressurised(X0) | open_air(X1)`), which has it as a subformula.
+
+VENTS = "vent_bank_printed_split_names"
+
+
+def test_a_split_component_named_without_a_definition_is_proposed_from_the_miniscoped_clause():
+    report = check(str(STYLES / VENTS / "proof.p"), str(STYLES / VENTS / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "named by `sP0_iProver_split <=> ! [X1] : open_air(X1)`" in steps["c_61"].message
+
+
+def test_a_split_clause_guarding_the_wrong_component_is_not_accepted(tmp_path):
+    # No definition of sP0 makes both split clauses follow from
+    # `pressurised(X0) | open_air(X1)`: with `! [X1] : open_air(X1)` the
+    # changed clause fails (counter-model: every vent open to air, v1 not
+    # pressurised), with `! [X0] : pressurised(X0)` the first (v1 not
+    # pressurised, every vent open to air, sP0 false), with the clause itself
+    # the changed one (sP0 true, v1 not pressurised).  A proposed definition
+    # never refutes, so the splitting steps are unproven, and the
+    # derivation is rejected downstream.
+    report, steps = _mutant(
+        tmp_path, VENTS,
+        "cnf(c_61,plain,( open_air(X1) | ~sP0_iProver_split )",
+        "cnf(c_61,plain,( pressurised(X1) | ~sP0_iProver_split )",
+    )
+    assert report.verdict == REJECTED
+    assert steps["c_61"].outcome == UNPROVEN
+    assert "reason: no_naming_definition" in steps["c_61"].details
+
+
+# A derivation laid out as published solutions are (the refutation first)
+# is checked in the order it was found: Kahn's order takes the latest
+# written step among the ready ones when most parents are written after
+# their children.  Taking the earliest put the split definitions that
+# mention Skolem constants before the axiom of choice of those constants,
+# which then failed as not fresh.
+
+PUBLISHED = "shelf_meets_printed_published_layout"
+
+
+def test_a_refutation_first_layout_is_checked_in_the_order_it_was_found():
+    report = check(str(STYLES / PUBLISHED / "proof.p"), str(STYLES / PUBLISHED / "problem.p"))
+    order = [step.name for step in report.steps]
+    assert report.verdict == ACCEPTED
+    assert order.index("f11") < order.index("f28") < order.index("f31") < order.index("f73")
+
+
+def test_a_split_symbol_defined_twice_in_a_refutation_first_layout_is_not_fresh(tmp_path):
+    # The second definition in the order found is at fault: spl0_0 would
+    # name both sides of the goal's equation.
+    report, steps = _mutant(tmp_path, PUBLISHED, "fof(f31,plain,( spl0_1 <=>", "fof(f31,plain,( spl0_0 <=>")
+    _rejected_at(report, steps, "f31", "not_fresh")

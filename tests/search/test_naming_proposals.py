@@ -29,6 +29,7 @@ from checker.kernel.formulas import (
 )
 from checker.kernel.introductions import check_definition
 from checker.kernel.terms import application, variable
+from checker.search.miniscoping import miniscoped
 from checker.search.namings import choose_definition, introduction, proposals
 from checker.search.reconstruct import DEFAULT_LIMITS
 from formats.tptp import read_tptp
@@ -60,7 +61,9 @@ def _body(definition):
 def test_every_proposal_has_the_shape_the_kernel_accepts_and_names_a_subformula(body, arity):
     premise = quantified(FORALL, (X, Y), body)
     conclusion = atomic(application("sP9", tuple(variable(f"X{i}") for i in range(arity))))
-    subformulas = {f for f, _ in subformulas_with_polarity(premise)}
+    # Subformulas of the premise, or of the premise miniscoped (the
+    # components a prover that splits clauses names).
+    subformulas = {f for form in (premise, miniscoped(premise)) for f, _ in subformulas_with_polarity(form)}
     for definition in proposals(("sP9", arity), [premise], conclusion):
         assert check_definition(definition, ("sP9", arity)) is None
         named = _body(definition).arguments[1]
