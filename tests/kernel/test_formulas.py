@@ -418,6 +418,8 @@ def test_rendering_reads_as_tptp():
     formula = forall([X], binary(IMPLIES, negation(binary(OR, opened(X), alarm)), equal(drain(X), pump)))
     assert str(formula) == "! [X] : (~ (open(X) | alarm) => drain(X) = pump)"
     assert repr(negation(VERUM)) == "Formula('~ $true')"
+    # TPTP BNF <fof_variable_list>: the variables of one quantifier, comma-separated.
+    assert str(exists([X, Y], feeds(X, Y))) == "? [X,Y] : feeds(X,Y)"
 
 
 def test_pickling_a_deep_chain_is_flat_and_keeps_sharing():
