@@ -122,6 +122,14 @@ def test_symbols_of_formula_cover_predicates_functions_constants_and_equality():
     assert symbols_of_formula(formula) == {("open", 1), ("drain", 1), ("=", 2), ("pump", 0), ("alarm", 0)}
 
 
+def test_symbols_of_formula_go_on_past_a_repeated_subformula():
+    # Common practice: every symbol counts, or a "fresh" Skolem or definition
+    # symbol could clash with one the input already uses.  The shared
+    # `alarm & alarm` is read before open/1 here, and open/1 must still count.
+    formula = binary(AND, opened(tank), binary(AND, alarm, alarm))
+    assert symbols_of_formula(formula) == {("open", 1), ("tank", 0), ("alarm", 0)}
+
+
 # --- alpha-equivalence -------------------------------------------------------
 
 
