@@ -38,8 +38,9 @@ MUTMUT = [sys.executable, "-c", "import sys; from mutmut.__main__ import cli; sy
 # after (estimated time + 1) * CPU_FACTOR seconds of *its own CPU time*, and wall
 # time only stops it past WALL_FACTOR times that (a backstop, not a judge).
 LIMITED = """
-import math, os, resource, signal, sys, threading, time
+import hashlib, math, os, resource, signal, sys, threading, time
 from datetime import datetime
+from pathlib import Path
 import mutmut.__main__ as mm
 
 cpu_factor = float(os.environ["KERNEL_MUTATION_CPU_FACTOR"])
@@ -92,9 +93,31 @@ def timed_stats(run_stats):
             mm.mutmut.duration_by_test.update(totals)
     return run
 
+def keeping_results(create):
+    # mutmut writes every file's mutants afresh on each run, and with them a record
+    # of results all unchecked: a second run (--resume, the recheck of stopped
+    # mutants) would forget the first.  Keep the earlier results of the same source.
+    def create_again(filename, output_path):
+        earlier = mm.SourceFileMutationData(path=filename)
+        earlier.load()
+        digest = hashlib.sha256(Path(filename).read_bytes()).hexdigest()
+        mark = Path(str(earlier.meta_path) + ".source")
+        same = mark.exists() and mark.read_text() == digest
+        result = create(filename, output_path)
+        if result.error is None:
+            fresh = mm.SourceFileMutationData(path=filename)
+            fresh.load()
+            if same:
+                fresh.exit_code_by_key = {k: earlier.exit_code_by_key.get(k) for k in fresh.exit_code_by_key}
+                fresh.save()
+            mark.write_text(digest)
+        return result
+    return create_again
+
 mm.resource = CpuLimit
 mm.timeout_checker = wall_backstop
 mm.PytestRunner.run_stats = timed_stats(mm.PytestRunner.run_stats)
+mm.create_mutants_for_file = keeping_results(mm.create_mutants_for_file)
 sys.exit(mm.cli())
 """
 

@@ -228,6 +228,41 @@ def test_a_named_disjunct_keeps_its_variables():
     )
 
 
+def test_a_product_of_exactly_the_limit_is_multiplied_out():
+    # The module's step 4 names disjuncts only when multiplying would give
+    # *more* than DISTRIBUTION_LIMIT clauses; (a1 & a2) | (a3 & a4) | (a5 & a6)
+    # gives 2 * 2 * 2 = 8, so it is multiplied out with no fresh atom.
+    assert DISTRIBUTION_LIMIT == 8
+    p, q, r, s = (atom(n) for n in NAMES)
+    pairs = [binary(AND, p, q), binary(AND, r, s), binary(AND, negation(p), negation(r))]
+    formula = binary(OR, binary(OR, pairs[0], pairs[1]), pairs[2])
+    result = clausify([formula])
+    assert result.fresh_symbols == ()
+    assert_conservative(formula, result)
+
+
+def test_both_disjuncts_with_several_clauses_are_named():
+    # Plaisted and Greenbaum's naming (from memory), as the module's step 4
+    # states it: when multiplying would exceed the limit, *each* disjunct with
+    # several clauses is named, here the two clauses already multiplied out as
+    # well as the nine-clause part, so the disjunction is one clause d1 | d2.
+    p, q, r, s = (atom(n) for n in NAMES)
+    parts = [p, q, r, s, binary(OR, p, q), binary(OR, q, r), binary(OR, r, s), binary(OR, s, p), binary(OR, p, r)]
+    large = parts[0]
+    for part in parts[1:]:
+        large = binary(AND, large, part)
+    two = binary(AND, negation(p), negation(s))
+    formula = binary(OR, two, large)
+    result = clausify([formula])
+    assert result.fresh_symbols == (
+        FreshSymbol("definition_1", 0, "definition", 0),
+        FreshSymbol("definition_2", 0, "definition", 0),
+    )
+    assert Clause([positive("definition_1"), positive("definition_2")]) in result.clauses
+    assert len(result.clauses) == 1 + 2 + len(parts)
+    assert_conservative(formula, result)
+
+
 # --- deep input ---------------------------------------------------------------
 
 

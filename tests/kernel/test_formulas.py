@@ -122,6 +122,14 @@ def test_symbols_of_formula_cover_predicates_functions_constants_and_equality():
     assert symbols_of_formula(formula) == {("open", 1), ("drain", 1), ("=", 2), ("pump", 0), ("alarm", 0)}
 
 
+def test_symbols_of_formula_go_on_past_a_repeated_subformula():
+    # Common practice: every symbol counts, or a "fresh" Skolem or definition
+    # symbol could clash with one the input already uses.  The shared
+    # `alarm & alarm` is read before open/1 here, and open/1 must still count.
+    formula = binary(AND, opened(tank), binary(AND, alarm, alarm))
+    assert symbols_of_formula(formula) == {("open", 1), ("tank", 0), ("alarm", 0)}
+
+
 # --- alpha-equivalence -------------------------------------------------------
 
 
@@ -418,6 +426,8 @@ def test_rendering_reads_as_tptp():
     formula = forall([X], binary(IMPLIES, negation(binary(OR, opened(X), alarm)), equal(drain(X), pump)))
     assert str(formula) == "! [X] : (~ (open(X) | alarm) => drain(X) = pump)"
     assert repr(negation(VERUM)) == "Formula('~ $true')"
+    # TPTP BNF <fof_variable_list>: the variables of one quantifier, comma-separated.
+    assert str(exists([X, Y], feeds(X, Y))) == "? [X,Y] : feeds(X,Y)"
 
 
 def test_pickling_a_deep_chain_is_flat_and_keeps_sharing():

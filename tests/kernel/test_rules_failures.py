@@ -98,6 +98,10 @@ def test_differing_equations_are_compared_the_way_round_they_share_a_side():
     assert "differ at position 2: `f(X)` vs `a`" in written_way.message
     unrelated = refused([Clause([pos(eq(b, f(X)))]), Clause([neg(eq(a, a))])], Resolution(0, 0, 1, 0))
     assert "differ at position 1: `b` vs `a`" in unrelated.message
+    # b = f(X) against f(X) != a share f(X) the other way round: turned, the
+    # right one is a != f(X), so the difference is b against a at position 1.
+    other_side = refused([Clause([pos(eq(b, f(X)))]), Clause([neg(eq(f(X), a))])], Resolution(0, 0, 1, 0))
+    assert "differ at position 1: `b` vs `a`" in other_side.message
 
 
 def test_paramodulation_needs_a_positive_equation():
@@ -223,6 +227,8 @@ def test_missing_literals_are_named_once_and_extra_ones_only_when_there_are_some
     failure = check_conclusion(computed, Clause([pos(r)]), Substitution({Y: X}))
     assert failure.reason == "missing_from_claimed"
     assert failure.message == "computed `p(X) | p(X) | r`, claimed `r`: produced but missing from the claimed clause: `p(X)`"
+    two_missing = check_conclusion(Clause([pos(p(a)), pos(q(a, b)), pos(r)]), Clause([pos(r)]))
+    assert two_missing.message.endswith("missing from the claimed clause: `p(a)`, `q(a,b)`")
 
 
 def test_claimed_literals_not_produced_are_a_weakening_not_a_failure():
