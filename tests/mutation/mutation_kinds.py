@@ -27,12 +27,6 @@ from formats.tptp import read_tptp
 ROOT = Path(__file__).resolve().parents[2]
 FIXTURES = ROOT / "fixtures"
 
-# Derivations of the prover corpus that are checked in seconds (the rest take minutes each).
-FAST_CORPUS = (
-    "boolean_algebra_absorption", "boolean_algebra_idempotence", "group_double_inverse",
-    "group_right_identity", "group_right_inverse", "lattice_idempotence", "plant_startup_checklist",
-)
-
 UNSOUND = "unsound"
 SOUND = "sound"
 JUDGED = None  # the oracle decides
@@ -76,8 +70,12 @@ def fixtures() -> list[Fixture]:
         for folder in sorted((tptp / shape).iterdir()):
             if (folder / "proof.p").is_file():
                 add(shape, folder)
-    for name in FAST_CORPUS:
-        add("prover_corpus", tptp / "prover_corpus" / name)
+    for folder in sorted((tptp / "prover_corpus").iterdir()):
+        if (folder / "proof.p").is_file():  # the large/ derivations are for scale, not for mutation
+            add("prover_corpus", folder)
+    for folder in sorted((tptp / "styles").iterdir()):
+        if (folder / "proof.p").is_file():
+            add("prover_styles", folder)
     for proof in sorted((tptp / "pelletier").glob("*_refutation.p")):
         problem = proof.with_name(proof.name.replace("_refutation", "_problem"))
         found.append(Fixture("pelletier", proof, problem, "tptp"))
