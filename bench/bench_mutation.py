@@ -31,6 +31,7 @@ from mutation_harness import (
     FALSE_ACCEPT,
     FALSE_REJECTION,
     INTERNAL_ERROR,
+    STATED_EVIDENCE_REJECTED,
     UNPROVEN_THEN_LATER,
     WRONG_STEP,
     Outcome,
@@ -114,7 +115,8 @@ def summarize(outcomes: list[Outcome]) -> None:
     for outcome in outcomes:
         by_shape[outcome.shape] = by_shape.get(outcome.shape, 0) + 1
     print("\nby shape: " + ", ".join(f"{shape} {n}" for shape, n in sorted(by_shape.items())))
-    for judgement in (FALSE_ACCEPT, INTERNAL_ERROR, FALSE_REJECTION, WRONG_STEP, UNPROVEN_THEN_LATER, ACCEPTED_UNDECIDED):
+    for judgement in (FALSE_ACCEPT, INTERNAL_ERROR, FALSE_REJECTION, WRONG_STEP, UNPROVEN_THEN_LATER,
+                      STATED_EVIDENCE_REJECTED, ACCEPTED_UNDECIDED):
         listed = [o for o in outcomes if o.judgement == judgement]
         if listed:
             print(f"\n{judgement} ({len(listed)}):")

@@ -11,6 +11,11 @@ reader read it (premises = its parents, or the problem for a leaf).  Then:
   rejection (a failure later, where a descendant no longer follows from
   the weaker claim, is right);
 * an undecided mutant is reported only if assay accepts it, for review.
+
+A native certificate states its evidence (inline, or as version 2
+findings keyed by the step's premises and claim): a sound claim whose
+stated evidence no longer fits it fails (``failed``, never ``refuted``),
+which is right for a certificate and counted on its own.
 """
 
 from __future__ import annotations
@@ -38,6 +43,7 @@ FALSE_ACCEPT = "false accept"
 WRONG_STEP = "wrong first step"
 UNPROVEN_THEN_LATER = "step unproven, later failed"
 FALSE_REJECTION = "false rejection"
+STATED_EVIDENCE_REJECTED = "sound, stated evidence rejected"
 ACCEPTED_UNDECIDED = "accepted, oracle undecided"
 RIGHT = "right"
 UNREADABLE_MUTANT = "mutant unreadable"
@@ -99,11 +105,14 @@ def reusing_checked_steps():
     such as a symbol that is no longer fresh; such a mutant then shows up
     as accepted, or fails at the mutated step.)"""
     from checker import run
+    from checker.search import findings
 
     cache: dict = {}
     original = run.check_inference
 
     def check_inference_once(step, parents, context):
+        if isinstance(findings._active.get(), findings.Replayer):
+            return original(step, parents, context)  # answered from a certificate's findings, which may differ
         try:
             key = (step, tuple(parents), context.limits, context.conjectures)
             hash(key)
@@ -265,7 +274,11 @@ def run_mutant(mutant: Mutant, limits: SearchLimits = DEFAULT_LIMITS) -> Outcome
         else:
             judgement = WRONG_STEP
     elif expected == SOUND:
-        judgement = FALSE_REJECTION if verdict == "rejected" and _at_step(first, mutant.step) else RIGHT
+        if verdict == "rejected" and _at_step(first, mutant.step):
+            stated = mutant.fixture.format != "tptp" and report["first_failure"]["outcome"] == "failed"
+            judgement = STATED_EVIDENCE_REJECTED if stated else FALSE_REJECTION
+        else:
+            judgement = RIGHT
     else:
         judgement = ACCEPTED_UNDECIDED if verdict == "accepted" else RIGHT
     where = f"{mutant.fixture.path.relative_to(mutant.fixture.path.parents[2])}#{mutant.index} ({mutant.step})"
@@ -274,7 +287,8 @@ def run_mutant(mutant: Mutant, limits: SearchLimits = DEFAULT_LIMITS) -> Outcome
 
 def tally(outcomes: list[Outcome]) -> str:
     """A table by kind: mutants, unsound / sound / undecided, and each kind of wrong answer."""
-    columns = (FALSE_ACCEPT, WRONG_STEP, UNPROVEN_THEN_LATER, FALSE_REJECTION, ACCEPTED_UNDECIDED, UNREADABLE_MUTANT, INTERNAL_ERROR)
+    columns = (FALSE_ACCEPT, WRONG_STEP, UNPROVEN_THEN_LATER, FALSE_REJECTION, STATED_EVIDENCE_REJECTED,
+               ACCEPTED_UNDECIDED, UNREADABLE_MUTANT, INTERNAL_ERROR)
     by_kind: dict[str, Counter] = defaultdict(Counter)
     for outcome in outcomes:
         for key in (outcome.kind, "ALL"):
