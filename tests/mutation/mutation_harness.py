@@ -281,8 +281,12 @@ def run_mutant(mutant: Mutant, limits: SearchLimits = DEFAULT_LIMITS) -> Outcome
             judgement = RIGHT
     else:
         judgement = ACCEPTED_UNDECIDED if verdict == "accepted" else RIGHT
-    where = f"{mutant.fixture.path.relative_to(mutant.fixture.path.parents[2])}#{mutant.index} ({mutant.step})"
-    return Outcome(mutant.kind, mutant.fixture.shape, expected, verdict, first, judgement, where)
+    return Outcome(mutant.kind, mutant.fixture.shape, expected, verdict, first, judgement, where_of(mutant))
+
+
+def where_of(mutant: Mutant) -> str:
+    """The fixture, mutant index and mutated step: enough to make the mutant again."""
+    return f"{mutant.fixture.path.relative_to(mutant.fixture.path.parents[2])}#{mutant.index} ({mutant.step})"
 
 
 def tally(outcomes: list[Outcome]) -> str:
