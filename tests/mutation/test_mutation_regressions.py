@@ -1,4 +1,4 @@
-"""Mutants the last large mutation run (bench/bench_mutation.py) got wrong,
+"""Mutants the large mutation runs (bench/bench_mutation.py) got wrong,
 checked again as that run checks them: in one long-lived process, inside
 ``reading_once`` and ``reusing_checked_steps`` (one outer file scope, so
 terms and cached results outlive each check), after other checks of the
@@ -31,6 +31,9 @@ REGRESSIONS = (
     ("depot_two_levels", "added_literal", "s3", None, SOUND),
     ("warehouse_three_levels", "added_literal", "w3", None, SOUND),
     ("warehouse_three_levels", "added_literal", "w5", None, SOUND),
+    # a rewriting record citing a step that claims $false as its equation (was an internal
+    # error while inferring the prover's term order); the oracle leaves it undecided
+    ("group_right_identity", "empty_clause_early", "c_0_12", None, None),
 )
 # extra leaves that made an earlier Skolem symbol look non-fresh (failed first there)
 EXTRA_LEAVES = (("expense_request_approval", 2), ("lattice_idempotence", 2), ("crane_truck_pairing", 2))
