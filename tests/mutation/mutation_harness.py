@@ -26,7 +26,7 @@ from collections import Counter, defaultdict
 from contextlib import contextmanager
 from dataclasses import dataclass
 
-from mutation_formats import is_leaf, origin_file
+from mutation_formats import is_leaf, origin_file, parent_names
 from mutation_kinds import SOUND, UNSOUND, Mutant, symbols
 from mutation_oracle import countermodel_size, ground_entailment, is_interpreted
 
@@ -234,7 +234,7 @@ def _original(mutant: Mutant):
         for s in problem:
             known |= symbols(s.content)
         background = {}
-        for s in statements.values():
+        for s in _parents_first(statements):
             new = symbols(s.content) - known
             if new and not is_interpreted(s.content):
                 background[s.name] = s.content
@@ -242,6 +242,29 @@ def _original(mutant: Mutant):
         _ORIGINALS[key] = (statements, background)
     statements, background = _ORIGINALS[key]
     return statements.get(mutant.step), background
+
+
+def _parents_first(statements: dict) -> list:
+    """The statements with every statement after its parents (iterative), so
+    that a symbol's first statement is its introduction even in a file that
+    prints the refutation first and its premises after it."""
+    ordered, placed, entered = [], set(), set()
+    for root in statements:
+        stack = [(root, False)]
+        while stack:
+            name, expanded = stack.pop()
+            if name in placed or name not in statements:
+                continue
+            if expanded:
+                placed.add(name)
+                ordered.append(statements[name])
+                continue
+            if name in entered:  # a cycle: leave it where it was met
+                continue
+            entered.add(name)
+            stack.append((name, True))
+            stack.extend((parent, False) for parent in reversed(parent_names(statements[name])) if parent not in placed)
+    return ordered
 
 
 def _at_step(first: str | None, step: str) -> bool:
