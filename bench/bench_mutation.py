@@ -10,7 +10,8 @@ not decide (listed for review).  Each outcome is also written as a JSON
 line to --out, so a long run can be read while it goes.
 
 Prints figures, asserts nothing.  Usage:
-    python3 bench/bench_mutation.py [--jobs N] [--limit N] [--shape SHAPE] [--out FILE]
+    python3 bench/bench_mutation.py [--jobs N] [--limit N] [--shape SHAPE] [--seed N] [--skip FILE] [--out FILE]
+    python3 bench/bench_mutation.py --summarize FILE [--summarize FILE ...]
 """
 
 from __future__ import annotations
@@ -18,6 +19,7 @@ from __future__ import annotations
 import argparse
 import json
 import multiprocessing
+import random
 import sys
 import time
 from dataclasses import asdict
@@ -31,6 +33,7 @@ from mutation_harness import (
     FALSE_ACCEPT,
     FALSE_REJECTION,
     INTERNAL_ERROR,
+    STATED_EVIDENCE_REJECTED,
     UNPROVEN_THEN_LATER,
     WRONG_STEP,
     Outcome,
@@ -38,6 +41,7 @@ from mutation_harness import (
     reusing_checked_steps,
     run_mutant,
     tally,
+    where_of,
 )
 from mutation_kinds import fixtures, mutants
 
@@ -73,20 +77,36 @@ def main() -> None:
     parser.add_argument("--shape", action="append", help="only fixtures of this shape (repeatable)")
     parser.add_argument("--out", type=Path, default=Path("mutation_outcomes.jsonl"))
     parser.add_argument("--limits-scale", type=float, default=1.0, help="every search bound times this factor")
+    parser.add_argument("--seed", type=int, help="shuffle each certificate's mutants with this seed (a partial run "
+                        "then samples every part of each certificate, not its first statements)")
+    parser.add_argument("--skip", type=Path, action="append", default=[],
+                        help="leave out the mutants already in this earlier --out file (repeatable)")
     parser.add_argument("--no-reuse", action="store_true", help="check every step of every mutant afresh")
-    parser.add_argument("--summarize", type=Path, help="print the figures of an earlier (perhaps partial) run's --out file")
+    parser.add_argument("--summarize", type=Path, action="append",
+                        help="print the figures of earlier (perhaps partial) runs' --out files, together")
     options = parser.parse_args()
     if options.summarize:
-        with options.summarize.open(encoding="utf-8") as lines:
-            outcomes = [Outcome(**json.loads(line)) for line in lines if line.strip()]
-        print(f"{len(outcomes)} mutants (from {options.summarize})\n")
+        outcomes = []
+        for path in options.summarize:
+            with path.open(encoding="utf-8") as lines:
+                outcomes += [Outcome(**json.loads(line)) for line in lines if line.strip()]
+        print(f"{len(outcomes)} mutants (from {', '.join(map(str, options.summarize))})\n")
         summarize(outcomes)
         return
     global _LIMITS
     _LIMITS = DEFAULT_LIMITS.scaled(options.limits_scale) if options.limits_scale != 1.0 else DEFAULT_LIMITS
     chosen = [f for f in fixtures() if not options.shape or f.shape in options.shape]
     start = time.perf_counter()
-    every = interleaved([mutants(f) for f in chosen])
+    groups = [mutants(f) for f in chosen]
+    if options.seed is not None:
+        for group in groups:
+            random.Random(f"{options.seed}:{group[0].fixture.path if group else ''}").shuffle(group)
+    every = interleaved(groups)
+    done = set()
+    for earlier in options.skip:
+        with earlier.open(encoding="utf-8") as lines:
+            done |= {json.loads(line)["where"] for line in lines if line.strip()}
+    every = [m for m in every if where_of(m) not in done]
     if options.limit:
         every = every[: options.limit]
     shapes = sorted({m.fixture.shape for m in every})
@@ -114,7 +134,8 @@ def summarize(outcomes: list[Outcome]) -> None:
     for outcome in outcomes:
         by_shape[outcome.shape] = by_shape.get(outcome.shape, 0) + 1
     print("\nby shape: " + ", ".join(f"{shape} {n}" for shape, n in sorted(by_shape.items())))
-    for judgement in (FALSE_ACCEPT, INTERNAL_ERROR, FALSE_REJECTION, WRONG_STEP, UNPROVEN_THEN_LATER, ACCEPTED_UNDECIDED):
+    for judgement in (FALSE_ACCEPT, INTERNAL_ERROR, FALSE_REJECTION, WRONG_STEP, UNPROVEN_THEN_LATER,
+                      STATED_EVIDENCE_REJECTED, ACCEPTED_UNDECIDED):
         listed = [o for o in outcomes if o.judgement == judgement]
         if listed:
             print(f"\n{judgement} ({len(listed)}):")

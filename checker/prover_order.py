@@ -13,7 +13,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable, Iterator
 
-from checker.kernel.clauses import Clause
+from checker.kernel.clauses import Clause, is_equality
 from checker.kernel.formulas import Formula, subformulas_with_polarity
 from checker.kernel.terms import Term
 from checker.search.demodulation import is_rewriting
@@ -54,9 +54,17 @@ def rewriting_examples(statements: dict[str, Statement]) -> list[RewritingExampl
             continue
         base, equations = chain
         cited = [statements.get(name) for name in (base, *equations)]
-        if all(s is not None and isinstance(s.content, Clause) for s in cited):
+        if all(s is not None and isinstance(s.content, Clause) for s in cited) and all(
+            _is_unit_equation(s.content) for s in cited[1:]
+        ):
             found.append(RewritingExample(cited[0].content, tuple(s.content for s in cited[1:]), statement.content))
     return found
+
+
+def _is_unit_equation(clause: Clause) -> bool:
+    """A rewriting record cites unit equations; a citation of anything else
+    (a wrong derivation's) is no example of how the prover rewrites."""
+    return len(clause.literals) == 1 and clause.literals[0].positive and is_equality(clause.literals[0].atom)
 
 
 def derivation_order(statements: dict[str, Statement], problem: Iterable[Statement] | None) -> TermOrder | None:

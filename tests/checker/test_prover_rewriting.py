@@ -47,3 +47,20 @@ def test_a_wrong_claim_over_the_computed_records_is_refuted_at_the_outer_step(tm
     assert report.first_failure.name == "c1"
     assert steps["c1"].outcome == REFUTED
     assert "reason: countermodel" in steps["c1"].details
+
+
+def test_a_rewriting_record_citing_the_empty_clause_as_its_equation_is_refuted_not_a_crash(tmp_path):
+    # A mutant of the large mutation run: the cited "equation" claims $false,
+    # so the record is no example of the prover's rewriting (was an internal error).
+    (tmp_path / "problem.p").write_text(PANEL)
+    (tmp_path / "proof.p").write_text("""
+cnf(c0, plain, $false, inference(rw, [status(thm)], [inference(spm, [status(thm)], [relay_alias, panel]), pair_merge])).
+cnf(c1, plain, q(b), inference(rw, [status(thm)], [panel, c0])).
+fof(n, negated_conjecture, ~ q(h(b)), inference(assume_negation, [status(cth)], [goal])).
+cnf(c2, plain, $false, inference(resolve, [status(thm)], [c1, n])).
+""")
+    report = check(str(tmp_path / "proof.p"), str(tmp_path / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict != ACCEPTED
+    assert report.first_failure.name == "c0"
+    assert steps["c0"].outcome == REFUTED

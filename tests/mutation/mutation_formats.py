@@ -239,7 +239,145 @@ class NativeFormat:
         return "\n"
 
 
-FORMATS = {"tptp": TptpFormat(), "native": NativeFormat()}
+class NativeV2Format(NativeFormat):
+    """Native certificates, version 2 (formats/native_certificate_v2.md): a
+    record is one JSON line that may carry findings, the evidence found when
+    the derivation was elaborated.  Besides the records, the findings are
+    mutated: each such mutant keeps every claim and makes one piece of
+    evidence wrong, so it must fail at the statement that carries it."""
+
+    name = "native_v2"
+
+    def used_findings(self, path: str, problem: str | None) -> dict[str, set[str]]:
+        """Statement name → the keys of its findings that checking the valid
+        certificate asks for.  A finding no question asks for (a nested
+        record may carry its outer step's findings beside its own inline
+        evidence) is not evidence of anything: making it wrong changes nothing."""
+        from checker import certified_steps, run
+
+        used: dict[str, set[str]] = {}
+        replayers: list = []
+        original_check, original_replayer = run.checked_with_findings, certified_steps.Replayer
+
+        class Watched(original_replayer):
+            def __init__(self, *args, **kwargs):
+                super().__init__(*args, **kwargs)
+                replayers.append(self)
+
+        def watched(step, statement, *rest):
+            replayers.clear()
+            results = original_check(step, statement, *rest)
+            used.setdefault(step.name, set()).update(*(r.used for r in replayers))
+            return results
+
+        run.checked_with_findings, certified_steps.Replayer = watched, Watched
+        try:
+            run.check(path, problem=problem)
+        finally:
+            run.checked_with_findings, certified_steps.Replayer = original_check, original_replayer
+        return used
+
+    def finding_mutations(self, record: Record, constants: list[str], used: set[str]) -> list[tuple[str, str]]:
+        """(kind, the record with one used finding made wrong), for each finding
+        of the record that its check asks for (and each leaf's problem link)."""
+        findings = record.fields.get("findings") or []
+        found = []
+
+        def with_finding(index: int, finding: dict) -> str:
+            changed = [finding if i == index else f for i, f in enumerate(findings)]
+            return self.write(record, value={**record.fields, "findings": changed})
+
+        for index, finding in enumerate(findings):
+            kind = finding["kind"]
+            if "for" in finding and finding["for"] not in used:
+                continue
+            if "for" in finding and kind != "definition":  # a name's definition is shared by its steps
+                found.append(("finding_wrong_key", with_finding(index, {**finding, "for": _other_hex(finding["for"])})))
+            if kind == "problem_link":
+                found.append(("finding_wrong_leaf_hash",
+                              with_finding(index, {**finding, "sha256": _other_hex(finding["sha256"])})))
+            for field in ("substitution", "theta"):
+                wrong = _wrong_substitution(finding.get(field), constants)
+                if wrong is not None:
+                    found.append(("finding_wrong_binding", with_finding(index, {**finding, field: wrong})))
+            if kind == "cover":
+                matches = finding["matches"]
+                for m, match in enumerate(matches[:2]):
+                    moved = {**match, "premise_clause": match["premise_clause"] + 1}
+                    found.append(("finding_wrong_cover_premise", with_finding(
+                        index, {**finding, "matches": matches[:m] + [moved] + matches[m + 1 :]})))
+                    wrong = _wrong_substitution(match["substitution"], constants)
+                    if wrong is not None:
+                        found.append(("finding_wrong_binding", with_finding(
+                            index, {**finding, "matches": matches[:m] + [{**match, "substitution": wrong}] + matches[m + 1 :]})))
+            if kind == "witness_pairings":
+                for p, pairing in enumerate(finding["pairings"]):
+                    for w, witnessing in enumerate(pairing):
+                        for wrong in _wrong_witnessings(witnessing, constants):
+                            changed = [list(q) for q in finding["pairings"]]
+                            changed[p][w] = wrong
+                            found.append(("finding_wrong_witness", with_finding(index, {**finding, "pairings": changed})))
+                    if len(pairing) > 1:  # two witnesses exchanged
+                        changed = [list(q) for q in finding["pairings"]]
+                        first, second = changed[p][0], changed[p][1]
+                        changed[p][0] = {**first, "witness": second["witness"]}
+                        changed[p][1] = {**second, "witness": first["witness"]}
+                        found.append(("finding_wrong_witness", with_finding(index, {**finding, "pairings": changed})))
+            if kind == "definition" and " <=> " in finding["definition"]:
+                head, body = finding["definition"].split(" <=> ", 1)
+                wrong = f"{head} <=> ~ ({body[:-1]}))"  # the defining formula negated
+                found.append(("finding_wrong_definition", with_finding(index, {**finding, "definition": wrong})))
+            if kind in ("refutation", "clause_evidence"):
+                steps = finding.get("steps") or (finding.get("evidence") or {}).get("steps") or [finding.get("evidence") or {}]
+                for s, step in enumerate(steps[-2:]):
+                    for field, value in step.items():
+                        if field.endswith("literal") and isinstance(value, int) and not isinstance(value, bool):
+                            found.append(("finding_wrong_index", with_finding(
+                                index, _with_step_field(finding, len(steps) - len(steps[-2:]) + s, field, value + 1))))
+                            break
+        return found
+
+
+def _other_hex(digest: str) -> str:
+    """The digest with its last hex digit changed."""
+    return digest[:-1] + ("0" if digest[-1] != "0" else "1")
+
+
+def _wrong_substitution(substitution, constants: list[str]) -> dict | None:
+    """The substitution with its first binding made a constant it does not bind to."""
+    if not isinstance(substitution, dict) or not substitution:
+        return None
+    variable, term = next(iter(substitution.items()))
+    others = [c for c in constants if c != term]
+    return {**substitution, variable: others[0]} if others else None
+
+
+def _wrong_witnessings(witnessing: dict, constants: list[str]) -> list[dict]:
+    """A witnessing with an old symbol as its witness, and one for another premise."""
+    found = []
+    symbol = witnessing["witness"].split("(")[0]
+    others = [c for c in constants if c != symbol]
+    if others:
+        found.append({**witnessing, "witness": others[0]})
+    found.append({**witnessing, "premise": witnessing["premise"] + 1})
+    return found
+
+
+def _with_step_field(finding: dict, index: int, field: str, value: int) -> dict:
+    """The finding with one field of one of its evidence steps changed."""
+    if "steps" in finding:
+        steps = [dict(s) for s in finding["steps"]]
+        steps[index][field] = value
+        return {**finding, "steps": steps}
+    evidence = dict(finding["evidence"])
+    if "steps" in evidence:
+        steps = [dict(s) for s in evidence["steps"]]
+        steps[index][field] = value
+        return {**finding, "evidence": {**evidence, "steps": steps}}
+    return {**finding, "evidence": {**evidence, field: value}}
+
+
+FORMATS = {"tptp": TptpFormat(), "native": NativeFormat(), "native_v2": NativeV2Format()}
 
 
 def is_leaf(statement: Statement) -> bool:

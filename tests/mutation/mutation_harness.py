@@ -11,6 +11,11 @@ reader read it (premises = its parents, or the problem for a leaf).  Then:
   rejection (a failure later, where a descendant no longer follows from
   the weaker claim, is right);
 * an undecided mutant is reported only if assay accepts it, for review.
+
+A native certificate states its evidence (inline, or as version 2
+findings keyed by the step's premises and claim): a sound claim whose
+stated evidence no longer fits it fails (``failed``, never ``refuted``),
+which is right for a certificate and counted on its own.
 """
 
 from __future__ import annotations
@@ -21,7 +26,7 @@ from collections import Counter, defaultdict
 from contextlib import contextmanager
 from dataclasses import dataclass
 
-from mutation_formats import is_leaf, origin_file
+from mutation_formats import is_leaf, origin_file, parent_names
 from mutation_kinds import SOUND, UNSOUND, Mutant, symbols
 from mutation_oracle import countermodel_size, ground_entailment, is_interpreted
 
@@ -38,6 +43,7 @@ FALSE_ACCEPT = "false accept"
 WRONG_STEP = "wrong first step"
 UNPROVEN_THEN_LATER = "step unproven, later failed"
 FALSE_REJECTION = "false rejection"
+STATED_EVIDENCE_REJECTED = "sound, stated evidence rejected"
 ACCEPTED_UNDECIDED = "accepted, oracle undecided"
 RIGHT = "right"
 UNREADABLE_MUTANT = "mutant unreadable"
@@ -99,11 +105,14 @@ def reusing_checked_steps():
     such as a symbol that is no longer fresh; such a mutant then shows up
     as accepted, or fails at the mutated step.)"""
     from checker import run
+    from checker.search import findings
 
     cache: dict = {}
     original = run.check_inference
 
     def check_inference_once(step, parents, context):
+        if isinstance(findings._active.get(), findings.Replayer):
+            return original(step, parents, context)  # answered from a certificate's findings, which may differ
         try:
             key = (step, tuple(parents), context.limits, context.conjectures)
             hash(key)
@@ -225,7 +234,7 @@ def _original(mutant: Mutant):
         for s in problem:
             known |= symbols(s.content)
         background = {}
-        for s in statements.values():
+        for s in _parents_first(statements):
             new = symbols(s.content) - known
             if new and not is_interpreted(s.content):
                 background[s.name] = s.content
@@ -233,6 +242,29 @@ def _original(mutant: Mutant):
         _ORIGINALS[key] = (statements, background)
     statements, background = _ORIGINALS[key]
     return statements.get(mutant.step), background
+
+
+def _parents_first(statements: dict) -> list:
+    """The statements with every statement after its parents (iterative), so
+    that a symbol's first statement is its introduction even in a file that
+    prints the refutation first and its premises after it."""
+    ordered, placed, entered = [], set(), set()
+    for root in statements:
+        stack = [(root, False)]
+        while stack:
+            name, expanded = stack.pop()
+            if name in placed or name not in statements:
+                continue
+            if expanded:
+                placed.add(name)
+                ordered.append(statements[name])
+                continue
+            if name in entered:  # a cycle: leave it where it was met
+                continue
+            entered.add(name)
+            stack.append((name, True))
+            stack.extend((parent, False) for parent in reversed(parent_names(statements[name])) if parent not in placed)
+    return ordered
 
 
 def _at_step(first: str | None, step: str) -> bool:
@@ -265,16 +297,25 @@ def run_mutant(mutant: Mutant, limits: SearchLimits = DEFAULT_LIMITS) -> Outcome
         else:
             judgement = WRONG_STEP
     elif expected == SOUND:
-        judgement = FALSE_REJECTION if verdict == "rejected" and _at_step(first, mutant.step) else RIGHT
+        if verdict == "rejected" and _at_step(first, mutant.step):
+            stated = mutant.fixture.format != "tptp" and report["first_failure"]["outcome"] == "failed"
+            judgement = STATED_EVIDENCE_REJECTED if stated else FALSE_REJECTION
+        else:
+            judgement = RIGHT
     else:
         judgement = ACCEPTED_UNDECIDED if verdict == "accepted" else RIGHT
-    where = f"{mutant.fixture.path.relative_to(mutant.fixture.path.parents[2])}#{mutant.index} ({mutant.step})"
-    return Outcome(mutant.kind, mutant.fixture.shape, expected, verdict, first, judgement, where)
+    return Outcome(mutant.kind, mutant.fixture.shape, expected, verdict, first, judgement, where_of(mutant))
+
+
+def where_of(mutant: Mutant) -> str:
+    """The fixture, mutant index and mutated step: enough to make the mutant again."""
+    return f"{mutant.fixture.path.relative_to(mutant.fixture.path.parents[2])}#{mutant.index} ({mutant.step})"
 
 
 def tally(outcomes: list[Outcome]) -> str:
     """A table by kind: mutants, unsound / sound / undecided, and each kind of wrong answer."""
-    columns = (FALSE_ACCEPT, WRONG_STEP, UNPROVEN_THEN_LATER, FALSE_REJECTION, ACCEPTED_UNDECIDED, UNREADABLE_MUTANT, INTERNAL_ERROR)
+    columns = (FALSE_ACCEPT, WRONG_STEP, UNPROVEN_THEN_LATER, FALSE_REJECTION, STATED_EVIDENCE_REJECTED,
+               ACCEPTED_UNDECIDED, UNREADABLE_MUTANT, INTERNAL_ERROR)
     by_kind: dict[str, Counter] = defaultdict(Counter)
     for outcome in outcomes:
         for key in (outcome.kind, "ALL"):

@@ -11,6 +11,7 @@ are wrong by construction say so here.
 
 from __future__ import annotations
 
+import json
 import random
 import re
 from dataclasses import dataclass
@@ -26,12 +27,6 @@ from formats.tptp import read_tptp
 
 ROOT = Path(__file__).resolve().parents[2]
 FIXTURES = ROOT / "fixtures"
-
-# Derivations of the prover corpus that are checked in seconds (the rest take minutes each).
-FAST_CORPUS = (
-    "boolean_algebra_absorption", "boolean_algebra_idempotence", "group_double_inverse",
-    "group_right_identity", "group_right_inverse", "lattice_idempotence", "plant_startup_checklist",
-)
 
 UNSOUND = "unsound"
 SOUND = "sound"
@@ -76,8 +71,12 @@ def fixtures() -> list[Fixture]:
         for folder in sorted((tptp / shape).iterdir()):
             if (folder / "proof.p").is_file():
                 add(shape, folder)
-    for name in FAST_CORPUS:
-        add("prover_corpus", tptp / "prover_corpus" / name)
+    for folder in sorted((tptp / "prover_corpus").iterdir()):
+        if (folder / "proof.p").is_file():  # the large/ derivations are for scale, not for mutation
+            add("prover_corpus", folder)
+    for folder in sorted((tptp / "styles").iterdir()):
+        if (folder / "proof.p").is_file():
+            add("prover_styles", folder)
     for proof in sorted((tptp / "pelletier").glob("*_refutation.p")):
         problem = proof.with_name(proof.name.replace("_refutation", "_problem"))
         found.append(Fixture("pelletier", proof, problem, "tptp"))
@@ -86,6 +85,9 @@ def fixtures() -> list[Fixture]:
         found.append(Fixture("formula_steps", proof, problem, "tptp"))
     found.append(Fixture("native_v1", FIXTURES / "demo" / "interlock.jsonl", FIXTURES / "demo" / "interlock_problem.p",
                          "native"))
+    for certificate in sorted((FIXTURES / "native" / "elaborated").glob("*.jsonl")):
+        header = json.loads(certificate.read_text(encoding="utf-8").splitlines()[0])
+        found.append(Fixture("native_v2", certificate, (certificate.parent / header["problem"]).resolve(), "native_v2"))
     return found
 
 
@@ -249,11 +251,12 @@ def mutants(fixture: Fixture) -> list[Mutant]:
         return text[: record.start] + before + new_record + text[record.end :]
 
     names = [r.statement.name for r in records]
+    used = plugin.used_findings(str(fixture.path), str(fixture.problem)) if hasattr(plugin, "used_findings") else {}
     for i, record in enumerate(records):
         statement = record.statement
         name = statement.name
         content = statement.content
-        renderable = fixture.format == "native" or statement.language in ("cnf", "fof")
+        renderable = fixture.format != "tptp" or statement.language in ("cnf", "fof")
         # content changes: judged by the oracle, except a weakening, which is sound by construction
         if renderable:
             edits = clause_edits(content, literals) if isinstance(content, Clause) else formula_edits(content)
@@ -296,17 +299,21 @@ def mutants(fixture: Fixture) -> list[Mutant]:
         if constants and isinstance(statement.source, Inference):
             for changed in plugin.with_binding_changed(record, rng.choice(constants))[:2]:
                 add("changed_binding", name, replaced(record, changed),
-                    UNSOUND if fixture.format == "native" else JUDGED)
+                    UNSOUND if fixture.format != "tptp" else JUDGED)
         if hasattr(plugin, "with_index_changed"):
             for changed in plugin.with_index_changed(record)[:2]:
                 add("changed_evidence_index", name, replaced(record, changed), UNSOUND)
+        # the evidence a version 2 certificate carries: wrong by construction
+        if hasattr(plugin, "finding_mutations"):
+            for kind, changed in plugin.finding_mutations(record, constants, used.get(name, set())):
+                add(kind, name, replaced(record, changed), UNSOUND)
         # the name: a duplicate of an earlier statement's
         if i > 0:
             other = records[rng.randrange(i)].statement
             if other.content != content:
                 add("duplicated_name", other.name, replaced(record, plugin.write(record, name=other.name)), UNSOUND)
         # an extra leaf stating this step's claim, cited in place of its first parent
-        if parents and renderable and statement.language == "cnf" or (parents and fixture.format == "native"):
+        if parents and renderable and statement.language == "cnf" or (parents and fixture.format != "tptp"):
             leaf_name = f"extra_leaf_{i}"
             cited = plugin.with_parent_renamed(record, parents[0], leaf_name)
             if cited:
@@ -342,7 +349,7 @@ def _introduction_mutants(fixture, plugin, records, i, problem, text, signature,
     the oracle: a reused symbol can turn the step into a plain consequence of its parents."""
     record = records[i]
     statement = record.statement
-    if not (fixture.format == "native" or statement.language in ("cnf", "fof")):
+    if not (fixture.format != "tptp" or statement.language in ("cnf", "fof")):
         return []
     before: set[tuple[str, int]] = set()
     for s in problem:

@@ -1,4 +1,4 @@
-"""Mutants the last large mutation run (bench/bench_mutation.py) got wrong,
+"""Mutants the large mutation runs (bench/bench_mutation.py) got wrong,
 checked again as that run checks them: in one long-lived process, inside
 ``reading_once`` and ``reusing_checked_steps`` (one outer file scope, so
 terms and cached results outlive each check), after other checks of the
@@ -14,7 +14,7 @@ silently change what is tested.
 from __future__ import annotations
 
 import pytest
-from mutation_harness import RIGHT, reading_once, reusing_checked_steps, run_mutant
+from mutation_harness import RIGHT, judge, reading_once, reusing_checked_steps, run_mutant
 from mutation_kinds import SOUND, UNSOUND, fixtures, mutants
 
 # (fixture folder, kind, mutated step, which of the matching mutants or None for all, expected)
@@ -31,6 +31,9 @@ REGRESSIONS = (
     ("depot_two_levels", "added_literal", "s3", None, SOUND),
     ("warehouse_three_levels", "added_literal", "w3", None, SOUND),
     ("warehouse_three_levels", "added_literal", "w5", None, SOUND),
+    # a rewriting record citing a step that claims $false as its equation (was an internal
+    # error while inferring the prover's term order); the oracle leaves it undecided
+    ("group_right_identity", "empty_clause_early", "c_0_12", None, None),
 )
 # extra leaves that made an earlier Skolem symbol look non-fresh (failed first there)
 EXTRA_LEAVES = (("expense_request_approval", 2), ("lattice_idempotence", 2), ("crane_truck_pairing", 2))
@@ -89,3 +92,23 @@ def test_sound_weakenings_are_not_rejected_at_the_weakened_step(outcomes):
     assert len(sound) == 5
     for mutant, outcome in sound:
         assert outcome.first_step != mutant.step, outcome.where
+
+
+# Mutants the oracle got wrong (assay was right).  A derivation printed with its
+# refutation first: the first statement in the file that mentions a Skolem
+# symbol is a consequence, not its introduction (the choice axiom f9), which
+# the oracle must take as background.  With f9 no longer cited, f10 is still
+# a consequence of f8 and f9, and assay accepts it; the oracle called it unsound.
+# (fixture folder, kind, mutated step, a text only the mutant meant has)
+ORACLE_REGRESSIONS = (("subset_chain_saturation_printed", "dropped_parent", "f10", "new_symbols(skolem,[sK0])],[f8])"),)
+
+
+def test_the_oracle_takes_introductions_in_parents_first_order(tmp_path):
+    by_folder = {f.path.parent.name: f for f in fixtures() if f.path.name == "proof.p"}
+    for folder, kind, step, text in ORACLE_REGRESSIONS:
+        found = [m for m in mutants(by_folder[folder]) if (m.kind, m.step) == (kind, step) and text in m.text]
+        assert found, (folder, kind, step)
+        for mutant in found:
+            path = tmp_path / "mutant.p"
+            path.write_text(mutant.text, encoding="utf-8")
+            assert judge(mutant, str(path)) != UNSOUND, mutant.index

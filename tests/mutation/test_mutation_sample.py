@@ -1,8 +1,8 @@
 """A small sample of the mutation run (bench/bench_mutation.py has the large one).
 
 Mutants of a few quick certificates of different shapes: the native
-certificate (checked with no search), small clause derivations, a case
-split, a formula derivation.  Each mutant's expected answer is settled
+certificates (version 1, and version 2 with every one of its findings made
+wrong in turn), small clause derivations, a case split, a formula derivation.  Each mutant's expected answer is settled
 before assay sees it, by construction or by the oracle (python-sat on
 finite groundings, tests/mutation/mutation_oracle.py).  No unsound mutant
 may be accepted, and each must fail first at the mutated step.
@@ -25,18 +25,23 @@ from mutation_harness import (
 from mutation_kinds import SOUND, UNSOUND, fixtures, mutants
 from mutation_oracle import countermodel_size, ground_entailment
 
+from checker.report import report_json
+from checker.run import check
 from formats.tptp import parse_clause, parse_formula
 
-QUICK = ("interlock.jsonl", "baggage_sorting", "bridge_lift_interlock", "depot_one_level", "badge_access_refutation.p")
+QUICK = ("interlock.jsonl", "baggage_sorting", "bridge_lift_interlock", "depot_one_level", "badge_access_refutation.p",
+         "crane_truck_pairing.jsonl")
 PER_CERTIFICATE = 40
 
 
 def _sample():
+    """Some mutants of each quick certificate, and every finding made wrong in the version 2 ones."""
     chosen = [f for f in fixtures() if any(name in str(f.path) for name in QUICK)]
     found = []
     for fixture in chosen:
         every = mutants(fixture)
-        found.extend(random.Random(fixture.path.name).sample(every, min(PER_CERTIFICATE, len(every))))
+        picked = random.Random(fixture.path.name).sample(every, min(PER_CERTIFICATE, len(every)))
+        found.extend(picked + [m for m in every if m.kind.startswith("finding_") and m not in picked])
     return found
 
 
@@ -50,9 +55,10 @@ def outcomes():
 
 
 def test_the_sample_covers_several_shapes_and_kinds():
-    assert {m.fixture.shape for m in SAMPLE} >= {"native_v1", "clause_derivations", "splitting", "formula_steps"}
+    assert {m.fixture.shape for m in SAMPLE} >= {"native_v1", "native_v2", "clause_derivations", "splitting", "formula_steps"}
     assert len({m.kind for m in SAMPLE}) >= 10
-    assert 100 <= len(SAMPLE) <= 300
+    assert {"finding_wrong_leaf_hash", "finding_wrong_witness", "finding_wrong_key"} <= {m.kind for m in SAMPLE}
+    assert 100 <= len(SAMPLE) <= 400
 
 
 def test_no_unsound_mutant_is_accepted_and_none_crashes(outcomes):
@@ -66,6 +72,12 @@ def test_each_unsound_mutant_fails_first_at_the_mutated_step(outcomes):
     assert [o for o in unsound if o.judgement == WRONG_STEP] == []
 
 
+def test_every_wrong_finding_fails_at_the_statement_that_carries_it(outcomes):
+    wrong = [o for m, o in outcomes if m.kind.startswith("finding_")]
+    assert len(wrong) >= 10
+    assert all(o.verdict == "rejected" and o.judgement == RIGHT for o in wrong), wrong
+
+
 def test_no_sound_mutant_is_rejected_at_the_mutated_step(outcomes):
     assert [o for _, o in outcomes if o.judgement == FALSE_REJECTION] == []
     assert any(o.expected == SOUND and o.judgement == RIGHT for _, o in outcomes)
@@ -75,6 +87,15 @@ def test_the_mutated_step_is_the_one_the_mutant_changed():
     for mutant in SAMPLE:
         assert mutant.text != mutant.fixture.path.read_text(encoding="utf-8")
         assert mutant.step in mutant.text
+
+
+def test_the_version_2_certificates_are_accepted_as_they_are_written():
+    # made by `python3 -m checker elaborate` (DEVELOPERS.md, "Mutation testing"); a
+    # certificate that no longer reads as written would make every mutant of it look right
+    for fixture in (f for f in fixtures() if f.shape == "native_v2"):
+        report = report_json(check(str(fixture.path), problem=str(fixture.problem)))
+        assert report["verdict"] == "accepted", fixture.path
+        assert {s["outcome"] for s in report["steps"]} <= {"checked", "assumed"}, fixture.path
 
 
 # The oracle itself, on textbook cases (first-order semantics, common practice).
