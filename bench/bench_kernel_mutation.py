@@ -10,7 +10,7 @@ checker/kernel/MUTANTS.md (equivalent, or killed by a test added since).
 Prints figures, asserts nothing.  Usage:
     python3 bench/bench_kernel_mutation.py [--jobs N] [--scratch DIR] [--examples N]
         [--module substitution.py --tests test_substitution.py ...]   (a part of the kernel)
-        [--cpu-factor F] [--recheck-factor R] [--resume] [--report-only]
+        [--cpu-factor F] [--recheck-factor R] [--resume] [--report-only] [--fresh-recheck]
 Needs ``pip install mutmut`` (3.x).  Takes several hours on two cores for
 the whole kernel; a module or two at a time is practical.
 """
@@ -188,6 +188,24 @@ def mutmut(scratch: Path, arguments: list[str], cpu_factor: float, wall_factor: 
     subprocess.run([sys.executable, "-c", LIMITED, *arguments], cwd=scratch, env=environment, check=False)
 
 
+def fresh_recheck(scratch: Path, survivors: list[str], tests: list[str]) -> set[str]:
+    """The survivors that fail their tests when run in a process of their own.
+
+    mutmut runs each mutant in a child forked from the process that ran the
+    unmutated tests, so the kernel's hash-consing table is already full: a
+    term the tests ask for is found, and a mutant of the code that makes new
+    terms is never called.  A fresh interpreter starts with an empty table."""
+    kernel_tests = [f"tests/kernel/{t}" for t in tests] or ["tests/kernel/"]
+    killed = set()
+    for name in survivors:
+        environment = {**os.environ, "MUTANT_UNDER_TEST": name}
+        run = subprocess.run([sys.executable, "-m", "pytest", "-x", "-q", "-p", "no:cacheprovider", *kernel_tests],
+                             cwd=scratch / "mutants", env=environment, capture_output=True, check=False)
+        if run.returncode != 0:
+            killed.add(name)
+    return killed
+
+
 def module_of(mutant: str) -> str:
     """'checker.kernel.rules.x_resolve__mutmut_3' -> 'rules.py'."""
     return mutant.split(".")[2] + ".py"
@@ -204,7 +222,7 @@ def report(pairs: list[tuple[str, str]]) -> None:
         tally = tally if tally is not None else total
         if module != "all":
             total.update(tally)
-        killed, limit = tally["killed"] + tally["segfault"], tally["timeout"]
+        killed, limit = tally["killed"] + tally["segfault"] + tally["killed (fresh process)"], tally["timeout"]
         survived = tally["survived"] + tally["no tests"]
         other = sum(tally.values()) - killed - limit - survived
         judged = killed + limit + survived
@@ -228,6 +246,8 @@ def main() -> None:
                         help="run the stopped mutants again with this factor, to tell slow from looping (0: no)")
     parser.add_argument("--wall-factor", type=float, default=20,
                         help="backstop: stop a mutant after this many times its CPU allowance in wall time")
+    parser.add_argument("--fresh-recheck", action="store_true",
+                        help="run every survivor again in a process of its own (see fresh_recheck)")
     options = parser.parse_args()
     if not options.report_only:
         if not options.resume:
@@ -239,6 +259,11 @@ def main() -> None:
             mutmut(options.scratch, ["run", "--max-children", str(options.jobs), *stopped],
                    options.recheck_factor, options.wall_factor)
     pairs = results(options.scratch)
+    if options.fresh_recheck:
+        survivors = [name for name, status in pairs if status in ("survived", "no tests")]
+        print(f"\nrunning the {len(survivors)} survivors again, each in a fresh process")
+        killed = fresh_recheck(options.scratch, survivors, options.tests)
+        pairs = [(name, "killed (fresh process)" if name in killed else status) for name, status in pairs]
     tally = Counter(status for _, status in pairs)
     print(f"\nkernel mutants: {len(pairs)}  " + ", ".join(f"{n} {s}" for s, n in sorted(tally.items())))
     report(pairs)

@@ -198,3 +198,22 @@ def test_deep_terms_pickle_and_copy():
     assert pickle.loads(pickle.dumps(deep)) is deep
     assert copy.deepcopy(deep) is deep
     assert next(iter(subterms(deep))) == ((), deep)
+
+
+def test_walks_visit_a_shared_subterm_once():
+    # Each level uses the one below twice: 2**64 paths through 65 distinct
+    # subterms, so a walk that revisits shared subterms never ends
+    # (hash-consed terms are DAGs; common practice).
+    shared, ground = X, a
+    for _ in range(64):
+        shared, ground = application("pair", (shared, shared)), application("pair", (ground, ground))
+    assert variables_of(shared) == {X}
+    assert symbols_of(shared) == {("pair", 2)}
+    assert symbols_of(ground) == {("pair", 2), ("a", 0)}
+
+
+def test_a_variable_differs_from_a_constant_of_the_same_name():
+    # The kernel takes names as given, so a variable and a constant may
+    # share one; they are still different terms.
+    assert first_difference(variable("c"), application("c")) == ((), variable("c"), application("c"))
+    assert first_difference(application("c"), variable("c")) == ((), application("c"), variable("c"))

@@ -62,6 +62,30 @@ def test_premise_numbers_and_passes_are_bounded():
     assert check_unfolding([POLICY, ROLE], FOLDED, Unfolding(0, (1,), 2)).reason == "unfolding_passes"
 
 
+def test_a_premise_numbered_one_past_the_last_is_refused_with_its_number():
+    # Premises are numbered from 0, so with two premises 2 is the first
+    # number out of range.
+    failure = check_unfolding([POLICY, ROLE], FOLDED, Unfolding(0, (2,), 1))
+    assert failure.reason == "no_such_premise"
+    assert failure.message == "the step has 2 premises, not one numbered 2"
+
+
+def test_failure_messages_name_what_is_wrong():
+    # A prover's developer reads the message, not the code: each names the
+    # formula, the symbol or the counts at fault.
+    passes = check_unfolding([POLICY, ROLE], FOLDED, Unfolding(0, (1,), 2))
+    assert passes.message == "2 passes for 1 definitions"
+    one_way = parse_formula("! [B] : (blocked(B) => expired(B))")
+    not_definition = check_unfolding([POLICY, one_way], FOLDED, Unfolding(0, (1,), 1))
+    assert not_definition.message.startswith("premise 1 `") and "blocked(B)" in not_definition.message
+    other = parse_formula("! [B,Z] : (cleared(B,Z) <=> has_role(B,Z))")
+    twice = check_unfolding([POLICY, ROLE, other], FOLDED, Unfolding(0, (1, 2), 2))
+    assert twice.message == "`cleared/2` is defined by two of the premises"
+    wrong = parse_formula("! [B,Z] : (opens(B,Z) <=> (cleared(B,Z) & blocked(B)))")
+    differ = check_unfolding([POLICY, ROLE, REVOKED], wrong, Unfolding(0, (1, 2), 2))
+    assert differ.message.startswith("unfolded, the premise is `") and "the conclusion `" in differ.message
+
+
 def test_a_clause_premise_is_read_as_its_universal_closure():
     # cleared(B,Z) | ~ has_role(B,Z), with cleared defined as has_role.
     definition = parse_formula("! [B,Z] : (cleared(B,Z) <=> has_role(B,Z))")
