@@ -443,3 +443,12 @@ def test_substitution_renames_once_in_a_shared_subformula():
     formula = forall([Y], binary(AND, shared, shared))
     renamed = variable("Y1")
     assert substitute_free(formula, Substitution({X: Y})) is forall([renamed], binary(AND, feeds(Y, renamed), feeds(Y, renamed)))
+
+
+def test_symbols_of_a_formula_read_a_shared_subformula_once():
+    # Each level uses the one below twice: 2**64 paths through 65 distinct
+    # subformulas (hash-consed formulas are DAGs; common practice).
+    shared = atomic(application("valve_open", (application("v1"),)))
+    for _ in range(64):
+        shared = binary(AND, shared, shared)
+    assert symbols_of_formula(shared) == {("valve_open", 1), ("v1", 0)}
