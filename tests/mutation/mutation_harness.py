@@ -290,7 +290,7 @@ def run_mutant(mutant: Mutant, limits: SearchLimits = DEFAULT_LIMITS) -> Outcome
     elif expected == UNSOUND:
         if verdict == "accepted":
             judgement = FALSE_ACCEPT
-        elif _at_step(first, mutant.step):
+        elif _at_step(first, mutant.step) or any(_at_step(first, step) for step in mutant.citing):
             judgement = RIGHT
         elif any(_at_step(s["name"], mutant.step) and s["outcome"] == "unproven" for s in report["steps"]):
             judgement = UNPROVEN_THEN_LATER

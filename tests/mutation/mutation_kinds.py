@@ -53,6 +53,9 @@ class Mutant:
     expected: str | None
     """UNSOUND or SOUND by construction, or None for the oracle to decide"""
     index: int
+    citing: tuple[str, ...] = ()
+    """for a renamed step, the steps that cite its old name: they lose a
+    parent, so failing first there is at the change too"""
 
 
 def fixtures() -> list[Fixture]:
@@ -244,13 +247,17 @@ def mutants(fixture: Fixture) -> list[Mutant]:
     problem_file = fixture.problem.name if fixture.problem else "problem.p"
     found: list[Mutant] = []
 
-    def add(kind: str, step: str, new_text: str, expected: str | None) -> None:
-        found.append(Mutant(fixture, kind, step, new_text, expected, len(found)))
+    def add(kind: str, step: str, new_text: str, expected: str | None, citing: tuple[str, ...] = ()) -> None:
+        found.append(Mutant(fixture, kind, step, new_text, expected, len(found), citing))
 
     def replaced(record: Record, new_record: str, before: str = "") -> str:
         return text[: record.start] + before + new_record + text[record.end :]
 
     names = [r.statement.name for r in records]
+    children: dict[str, list[str]] = {}
+    for r in records:
+        for parent in parent_names(r.statement):
+            children.setdefault(parent, []).append(r.statement.name)
     used = plugin.used_findings(str(fixture.path), str(fixture.problem)) if hasattr(plugin, "used_findings") else {}
     for i, record in enumerate(records):
         statement = record.statement
@@ -307,11 +314,13 @@ def mutants(fixture: Fixture) -> list[Mutant]:
         if hasattr(plugin, "finding_mutations"):
             for kind, changed in plugin.finding_mutations(record, constants, used.get(name, set())):
                 add(kind, name, replaced(record, changed), UNSOUND)
-        # the name: a duplicate of an earlier statement's
+        # the name: a duplicate of an earlier statement's (in a file written refutation
+        # first, a step citing the vanished name may be checked, and fail, first)
         if i > 0:
             other = records[rng.randrange(i)].statement
             if other.content != content:
-                add("duplicated_name", other.name, replaced(record, plugin.write(record, name=other.name)), UNSOUND)
+                add("duplicated_name", other.name, replaced(record, plugin.write(record, name=other.name)), UNSOUND,
+                    tuple(children.get(name, ())))
         # an extra leaf stating this step's claim, cited in place of its first parent
         if parents and renderable and statement.language == "cnf" or (parents and fixture.format != "tptp"):
             leaf_name = f"extra_leaf_{i}"
