@@ -212,9 +212,13 @@ def check_introduction(
     with the claims of the earlier ones, so the last checks them all.  A
     symbol an introduced leaf (an axiom of choice) defines is that leaf's,
     and the leaf joins the premises."""
-    peers = table.co_introducers(step.name, new_symbols(claimed, raw_premises))
+    own = new_symbols(claimed, raw_premises)
+    peers = table.co_introducers(step.name, own)
     earlier = [peer for peer in peers if table.order[peer] < table.order[step.name]]
     together = _introduction(step, premises, [claimed, *(table.contents[p] for p in earlier)], raw_premises, peers, table, limits)
+    later = [peer for peer in peers if table.order[peer] > table.order[step.name]]
+    if together.outcome != RECONSTRUCTED and any(set(table.introducers_of(p)) - own for p in later):
+        return _with_later_introducers(step, premises, claimed, raw_premises, peers, later, together, table, limits)
     if together.outcome == RECONSTRUCTED or not earlier:
         return together
     alone = _introduction(step, premises, [claimed], raw_premises, peers, table, limits)
@@ -242,6 +246,49 @@ def check_introduction(
     )
 
 
+def _with_later_introducers(
+    step: Step,
+    premises: Sequence[Formula],
+    claimed: Clause | Formula,
+    raw_premises: Sequence[Clause | Formula],
+    peers: Sequence[str],
+    later: Sequence[str],
+    first_try: StepResult,
+    table: SymbolTable,
+    limits: SearchLimits,
+) -> StepResult:
+    """A clause of a Skolemized formula written before the clause that
+    introduces an outer witness it rests on (`p(sK1(X0))` before the clause
+    with `sK0`, the existential around both): alone, its witness would
+    have to depend on the outer existential, so it is checked with every
+    peer, the introduction they make together.  Refuted alone it is not
+    refuted: the counter-model may only miss the later symbols.  It fails
+    only when the peers hold without it and not with it."""
+    claims = [claimed, *(table.contents[p] for p in peers)]
+    whole = _introduction(step, premises, claims, raw_premises, peers, table, limits, company="other")
+    if whole.outcome == RECONSTRUCTED:
+        return whole
+    others = ", ".join(f"`{p}`" for p in later)
+    if whole.outcome == REFUTED and first_try.outcome == REFUTED:
+        rest = _introduction(step, premises, claims[1:], raw_premises, peers, table, limits)
+        if rest.outcome == RECONSTRUCTED:
+            details = tuple(line for line in whole.details if not line.startswith("reason: "))
+            return step_result(
+                step, FAILED,
+                f"does not hold together with {others}, which introduce further symbols from the same premises "
+                "and hold without it: under every pairing, a symbol would witness two quantifiers",
+                ("reason: witness_reused", *details),
+            )
+    if first_try.outcome == FAILED:
+        return first_try
+    return step_result(
+        step, UNPROVEN,
+        f"not shown by itself nor together with {others}, which introduce further symbols from the same premises, "
+        "within the search bounds (not refuted: alone it may only miss their symbols)",
+        tuple(line for line in first_try.details if not line.startswith("reason: ")),
+    )
+
+
 def _introduction(
     step: Step,
     premises: Sequence[Formula],
@@ -251,6 +298,7 @@ def _introduction(
     table: SymbolTable,
     limits: SearchLimits,
     used: frozenset = frozenset(),
+    company: str = "earlier",
 ) -> StepResult:
     """The conjunction of ``claims`` as an introduction.  Which quantifier
     each symbol witnesses is searched for; a counter-model refutes the step
@@ -282,12 +330,12 @@ def _introduction(
     cited = f" and `{'`, `'.join(leaves)}`, which define{'s' if len(leaves) == 1 else ''} some of its symbols" if leaves else ""
     together = ""
     if len(claims) > 1:
-        together = f" (with the {len(claims) - 1} earlier step{'s' if len(claims) > 2 else ''} introducing them)"
+        together = f" (with the {len(claims) - 1} {company} step{'s' if len(claims) > 2 else ''} introducing them)"
     not_fresh = table.freshness_failure(step.name, new, peers)
     if not_fresh:
         stale = frozenset(s for s in new if table.freshness_failure(step.name, [s], peers))
         if not used and not step.is_leaf and stale != new:
-            found = _introduction(step, premises, claims, raw_premises, peers, table, limits, stale)
+            found = _introduction(step, premises, claims, raw_premises, peers, table, limits, stale, company)
             if found.outcome == RECONSTRUCTED:
                 named = ", ".join(describe_symbol(s) for s in sorted(stale))
                 return replace(found, message=f"{found.message} ({named} used as in the problem or earlier steps, "
