@@ -436,6 +436,117 @@ MUTANTS = [
         "cnf(f43,plain,( spl0_2 | spl0_3 )",
         "f43", "countermodel",
     ),
+    # The second round of hand-written derivations (conventions and
+    # combinations the first did not show), one single change each.
+    # The exclusive or written out with a sign lost.  Counter-model: one door,
+    # sealed and not open.
+    _M(
+        "interlock_doors_printed_xor_connectives",
+        "fof(f12,plain,( ! [X0] : ((~open(X0) | ~sealed(X0)) & (open(X0) | sealed(X0))) )",
+        "fof(f12,plain,( ! [X0] : ((~open(X0) | ~sealed(X0)) & (open(X0) | ~sealed(X0))) )",
+        "f12", "countermodel",
+    ),
+    # A clause of the nested equivalences with a sign turned.  Counter-model:
+    # one room, certified and filtered, neither pressured nor staffed.
+    _M(
+        "clean_room_printed_nested_equivalences",
+        "cnf(f20,plain,( ~filtered(X0) | pressured(X0) | ~staffed(X0) | ~certified(X0) )",
+        "cnf(f20,plain,( ~filtered(X0) | pressured(X0) | staffed(X0) | ~certified(X0) )",
+        "f20", "countermodel",
+    ),
+    # The four-argument witness linked in the class's week instead of the
+    # relay's.  Counter-model: two elements, link only in week 0 (found by
+    # the search, sK0 tabled over all 16 argument tuples).
+    _M(
+        "freight_hubs_printed_wide_choice",
+        "cnf(f15,plain,( link(X0,sK0(X0,X1,X2,X3),X3) | ~relay(X0,X1,X2,X3) )",
+        "cnf(f15,plain,( link(X0,sK0(X0,X1,X2,X3),X2) | ~relay(X0,X1,X2,X3) )",
+        "f15", "countermodel",
+    ),
+    # Two names folded as a disjunction.  Counter-model: one station with a
+    # valve not closed (sP0 false), sP1 true, not safe.
+    _M(
+        "pump_station_printed_two_definitions_folded",
+        "fof(f9,plain,( ! [X0] : (safe(X0) <=> (sP0(X0) & sP1(X0))) )",
+        "fof(f9,plain,( ! [X0] : (safe(X0) <=> (sP0(X0) | sP1(X0))) )",
+        "f9", "countermodel",
+    ),
+    # The backup's split clause naming the wrong component.  Counter-model:
+    # every cell cooled, none heated or drained (spl0_1 true, spl0_0 and
+    # spl0_5 false, as their definitions say).
+    _M(
+        "cooling_loop_printed_avatar_many_components",
+        "cnf(f27,plain,( spl0_1 | spl0_5 )",
+        "cnf(f27,plain,( spl0_0 | spl0_5 )",
+        "f27", "countermodel",
+    ),
+    # Superposition of a non-unit equation that drops the side condition it
+    # brings.  Counter-model: depot swaps two sites, site 0 remote, hub 0 runs
+    # slow (0), site 0 not audited.
+    _M(
+        "depot_rates_printed_nonunit_superposition",
+        "cnf(f20,plain,( rate(hub) != slow | audited(X0) | remote(X0) )",
+        "cnf(f20,plain,( rate(hub) != slow | audited(X0) )",
+        "f20", "countermodel",
+    ),
+    # Equality resolution binding the valve to its own gate.  Counter-model:
+    # gate_of constantly 1, 0 locked, nothing isolated.
+    _M(
+        "gate_isolation_printed_nested_records_by_hand",
+        "cnf(c_0_20, plain, (isolated(X1)|~locked(gate_of(X1)))",
+        "cnf(c_0_20, plain, (isolated(X1)|~locked(X1))",
+        "c_0_20", "countermodel",
+    ),
+    # thf: subsumption resolution without the unit `lockdown` it needs.
+    # Counter-model: lockdown false, no reader armed.
+    _M(
+        "badge_readers_printed_thf_bool_atoms",
+        "! [X0 : reader] : (armed @ X0)),\n  inference(subsumption_resolution,[],[f12,f13])",
+        "! [X0 : reader] : (armed @ X0)),\n  inference(subsumption_resolution,[],[f12])",
+        "f15", "countermodel",
+    ),
+    # A leaf citing a statement of the included file that the include does not
+    # select (`relay_noisy` would contradict `sealed_quiet` for s1).
+    _M(
+        "relay_shelter_printed_included_roles",
+        "fof(f3,axiom,( ! [X0] : (relay_in(X0) => powered(X0)) ),file('problem.p',relay_powered_here))",
+        "fof(f3,axiom,( ! [X0] : (relay_in(X0) => noisy(X0)) ),file('shelter_axioms.ax',relay_noisy))",
+        "f3", "not_in_problem",
+    ),
+    # Typed over $i: superposition that keeps the inequality positive.
+    # Counter-model: locker swaps two keys, sK0 = sK1 = 0.
+    _M(
+        "locker_keys_printed_tff_individuals",
+        "cnf(f16,plain,( sK1 = X0 | locker(sK0) != locker(X0) )",
+        "cnf(f16,plain,( sK1 = X0 | locker(sK0) = locker(X0) )",
+        "f16", "countermodel",
+    ),
+    # A Skolem clause under the equivalence with its guard's sign turned.
+    # Counter-model (both pairings): one depot, sending and receiving nothing.
+    _M(
+        "route_pairs_printed_skolem_clauses_under_equivalence",
+        "cnf(f9,plain,( sends(X0,sK0(X0)) | ~receives(X0,X1) )",
+        "cnf(f9,plain,( sends(X0,sK0(X0)) | receives(X0,X1) )",
+        "f9", "countermodel",
+    ),
+    # The inner witness's clause moved to the outer constant: every officer's
+    # shift covered by the inspector.  Counter-model: two elements, covers the
+    # identity, sk__2 the identity, sk__1 = 1; the claim fails at X0 = 0.
+    _M(
+        "audit_rota_printed_quoted_rules_inner_witness",
+        "cnf(zip_derived_cl1, negated_conjecture, (covers(X0, sk__2(X0)))",
+        "cnf(zip_derived_cl1, negated_conjecture, (covers(sk__1, sk__2(X0)))",
+        "zip_derived_cl1", "countermodel",
+    ),
+    # A clause of the equivalence with ~| and <~> that reads the badge for the
+    # training.  Counter-model: one worker with a badge and a ban, untrained,
+    # not allowed.
+    _M(
+        "site_gates_printed_negated_connectives_in_equivalence",
+        "cnf(f19,plain,( allowed(X0) | ~banned(X0) | ~trained(X0) )",
+        "cnf(f19,plain,( allowed(X0) | ~badge(X0) | ~banned(X0) )",
+        "f19", "countermodel",
+    ),
 ]
 
 
@@ -548,3 +659,44 @@ def test_a_split_symbol_defined_twice_in_a_refutation_first_layout_is_not_fresh(
     # name both sides of the goal's equation.
     report, steps = _mutant(tmp_path, PUBLISHED, "fof(f31,plain,( spl0_1 <=>", "fof(f31,plain,( spl0_0 <=>")
     _rejected_at(report, steps, "f31", "not_fresh")
+
+
+# A clause of a Skolemized formula may be written before the clause that
+# introduces the outer witness it rests on: `device(sK1(X0)) | ...` of
+# `? [X0] : ! [X1] : (? [X2] : ... | ...)` comes before the clause with
+# sK0.  Alone, sK1 would have to depend on the outer existential, and the
+# clause was refuted; it is checked with its later co-introducers.
+
+GRANTS = "access_grants_printed_alternating_goal"
+
+
+def test_a_clause_before_its_outer_witness_is_checked_with_the_later_clauses():
+    report = check(str(STYLES / GRANTS / "proof.p"), str(STYLES / GRANTS / "problem.p"))
+    steps = {step.name: step for step in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "introducing sK0/0, sK1/1 (with the 1 other step introducing them)" in steps["f13"].message
+
+
+def test_a_clause_that_does_not_fit_its_later_co_introducers_is_refused(tmp_path):
+    # f14 holds without f13; with the device literal's sign turned f13 does
+    # not hold with it under any pairing.  Counter-model: one user owning
+    # one thing, no device.
+    report, steps = _mutant(
+        tmp_path, GRANTS,
+        "cnf(f13,plain,( device(sK1(X0)) | ~device(X1) | ~owns(X0,X1) )",
+        "cnf(f13,plain,( device(sK1(X0)) | device(X1) | ~owns(X0,X1) )",
+    )
+    _rejected_at(report, steps, "f13", "witness_reused")
+
+
+def test_a_later_co_introducer_that_does_not_hold_is_refuted_there_not_before(tmp_path):
+    # f13 is right; f14 with a sign turned has a counter-model with f13 (one
+    # user owning a granted non-device): the fault is f14's, and f13 is not
+    # refuted for it.
+    report, steps = _mutant(
+        tmp_path, GRANTS,
+        "cnf(f14,plain,( ~grant(X0,sK0,sK1(X0)) | ~device(X1) | ~owns(X0,X1) )",
+        "cnf(f14,plain,( ~grant(X0,sK0,sK1(X0)) | device(X1) | ~owns(X0,X1) )",
+    )
+    _rejected_at(report, steps, "f14", "countermodel")
+    assert steps["f13"].outcome not in (FAILED, REFUTED)
