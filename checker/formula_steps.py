@@ -46,7 +46,13 @@ from checker.search.models import find_countermodel
 from checker.search.propositional import find_unit_entailment
 from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.unfolding import find_unfolding
-from checker.search.witnesses import Witnessing, matching_witnesses, witness_readings
+from checker.search.witnesses import (
+    Witnessing,
+    is_anonymous,
+    matching_witnesses,
+    readings_with_anonymous_outer,
+    witness_readings,
+)
 from formats.derivation import Origin
 
 
@@ -212,13 +218,9 @@ def check_introduction(
     with the claims of the earlier ones, so the last checks them all.  A
     symbol an introduced leaf (an axiom of choice) defines is that leaf's,
     and the leaf joins the premises."""
-    own = new_symbols(claimed, raw_premises)
-    peers = table.co_introducers(step.name, own)
+    peers = table.co_introducers(step.name, new_symbols(claimed, raw_premises))
     earlier = [peer for peer in peers if table.order[peer] < table.order[step.name]]
     together = _introduction(step, premises, [claimed, *(table.contents[p] for p in earlier)], raw_premises, peers, table, limits)
-    later = [peer for peer in peers if table.order[peer] > table.order[step.name]]
-    if together.outcome != RECONSTRUCTED and any(set(table.introducers_of(p)) - own for p in later):
-        return _with_later_introducers(step, premises, claimed, raw_premises, peers, later, together, table, limits)
     if together.outcome == RECONSTRUCTED or not earlier:
         return together
     alone = _introduction(step, premises, [claimed], raw_premises, peers, table, limits)
@@ -246,49 +248,6 @@ def check_introduction(
     )
 
 
-def _with_later_introducers(
-    step: Step,
-    premises: Sequence[Formula],
-    claimed: Clause | Formula,
-    raw_premises: Sequence[Clause | Formula],
-    peers: Sequence[str],
-    later: Sequence[str],
-    first_try: StepResult,
-    table: SymbolTable,
-    limits: SearchLimits,
-) -> StepResult:
-    """A clause of a Skolemized formula written before the clause that
-    introduces an outer witness it rests on (`p(sK1(X0))` before the clause
-    with `sK0`, the existential around both): alone, its witness would
-    have to depend on the outer existential, so it is checked with every
-    peer, the introduction they make together.  Refuted alone it is not
-    refuted: the counter-model may only miss the later symbols.  It fails
-    only when the peers hold without it and not with it."""
-    claims = [claimed, *(table.contents[p] for p in peers)]
-    whole = _introduction(step, premises, claims, raw_premises, peers, table, limits, company="other")
-    if whole.outcome == RECONSTRUCTED:
-        return whole
-    others = ", ".join(f"`{p}`" for p in later)
-    if whole.outcome == REFUTED and first_try.outcome == REFUTED:
-        rest = _introduction(step, premises, claims[1:], raw_premises, peers, table, limits)
-        if rest.outcome == RECONSTRUCTED:
-            details = tuple(line for line in whole.details if not line.startswith("reason: "))
-            return step_result(
-                step, FAILED,
-                f"does not hold together with {others}, which introduce further symbols from the same premises "
-                "and hold without it: under every pairing, a symbol would witness two quantifiers",
-                ("reason: witness_reused", *details),
-            )
-    if first_try.outcome == FAILED:
-        return first_try
-    return step_result(
-        step, UNPROVEN,
-        f"not shown by itself nor together with {others}, which introduce further symbols from the same premises, "
-        "within the search bounds (not refuted: alone it may only miss their symbols)",
-        tuple(line for line in first_try.details if not line.startswith("reason: ")),
-    )
-
-
 def _introduction(
     step: Step,
     premises: Sequence[Formula],
@@ -298,7 +257,6 @@ def _introduction(
     table: SymbolTable,
     limits: SearchLimits,
     used: frozenset = frozenset(),
-    company: str = "earlier",
 ) -> StepResult:
     """The conjunction of ``claims`` as an introduction.  Which quantifier
     each symbol witnesses is searched for; a counter-model refutes the step
@@ -330,12 +288,12 @@ def _introduction(
     cited = f" and `{'`, `'.join(leaves)}`, which define{'s' if len(leaves) == 1 else ''} some of its symbols" if leaves else ""
     together = ""
     if len(claims) > 1:
-        together = f" (with the {len(claims) - 1} {company} step{'s' if len(claims) > 2 else ''} introducing them)"
+        together = f" (with the {len(claims) - 1} earlier step{'s' if len(claims) > 2 else ''} introducing them)"
     not_fresh = table.freshness_failure(step.name, new, peers)
     if not_fresh:
         stale = frozenset(s for s in new if table.freshness_failure(step.name, [s], peers))
         if not used and not step.is_leaf and stale != new:
-            found = _introduction(step, premises, claims, raw_premises, peers, table, limits, stale, company)
+            found = _introduction(step, premises, claims, raw_premises, peers, table, limits, stale)
             if found.outcome == RECONSTRUCTED:
                 named = ", ".join(describe_symbol(s) for s in sorted(stale))
                 return replace(found, message=f"{found.message} ({named} used as in the problem or earlier steps, "
@@ -357,7 +315,10 @@ def _introduction(
             premises, readings = scoped, retry
             what = f"{what} (miniscoped first)"
     if not readings.found:
-        if readings.misfit is not None:
+        outer = _with_anonymous_outer(premises, conclusion, claims, new, limits, what)
+        if isinstance(outer, str):
+            return step_result(step, RECONSTRUCTED, outer)
+        if readings.misfit is not None and outer:
             return step_result(step, FAILED, readings.misfit.message, (f"reason: {readings.misfit.reason}",))
         return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
     replayed = [_replay(premises, reading) for reading in readings.found]
@@ -369,25 +330,16 @@ def _introduction(
             models.append(_countermodel(skolemized, conclusion))
             if models[-1] is not None:
                 continue
-        # Each claim from the same Skolemized premises: then so does their
-        # conjunction, at the cost of several small searches, not one large.
-        lengths = []
-        for claim in claims:
-            wanted = as_formula(claim)
-            if any(alpha_equivalent(p, wanted) for p in skolemized):
-                lengths.append(0)
-                continue
-            lengths.append(_refutation_length(skolemized, wanted, limits))
-            if lengths[-1] is None:
-                break
-        if None not in lengths:
-            how = "alpha-equivalent to a Skolemized premise, or its clauses subsumed by theirs" if not any(lengths) else (
-                f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences")
+        how = _follows(skolemized, claims, limits)
+        if how is not None:
             return step_result(step, RECONSTRUCTED, f"{what}: {how}")
+    outer = _with_anonymous_outer(premises, conclusion, claims, new, limits, what)
+    if isinstance(outer, str):
+        return step_result(step, RECONSTRUCTED, outer)
     # Say which quantifier each symbol was taken to witness: that pairing is
     # part of what did not hold.
     pairing = [f"Skolem term `{w.witness}` for `{w.bound}` of `{w.quantifier}`" for w in readings.found[0]]
-    if readings.exhaustive:
+    if readings.exhaustive and outer:
         models.insert(0, _countermodel(replayed[0], conclusion))
     else:
         models = [None]
@@ -407,6 +359,50 @@ def _introduction(
         f"{'' if readings.exhaustive else ' (not every pairing was tried)'} (claimed: {what})",
         tuple(pairing),
     )
+
+
+def _follows(skolemized: Sequence[Formula], claims: Sequence[Clause | Formula], limits: SearchLimits) -> str | None:
+    """How each claim follows from the same Skolemized premises (then so
+    does their conjunction, at the cost of several small searches, not one
+    large), or None."""
+    lengths = []
+    for claim in claims:
+        wanted = as_formula(claim)
+        if any(alpha_equivalent(p, wanted) for p in skolemized):
+            lengths.append(0)
+            continue
+        lengths.append(_refutation_length(skolemized, wanted, limits))
+        if lengths[-1] is None:
+            return None
+    if not any(lengths):
+        return "alpha-equivalent to a Skolemized premise, or its clauses subsumed by theirs"
+    return f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences"
+
+
+def _with_anonymous_outer(
+    premises: Sequence[Formula],
+    conclusion: Formula,
+    claims: Sequence[Clause | Formula],
+    new: set,
+    limits: SearchLimits,
+    what: str,
+) -> str | bool:
+    """The pairings that witness an outer existential by a symbol of nothing
+    else (checker/search/witnesses.py: readings_with_anonymous_outer): the
+    message when one shows the claims, else whether every such pairing was
+    tried and has a kernel-confirmed counter-model (only then may the step
+    be refuted or a missing dependency be final)."""
+    readings = readings_with_anonymous_outer(premises, conclusion, new, limits.witness_readings, _kernel_skolemize)
+    for reading in readings.found:
+        skolemized = _replay(premises, reading)
+        if _countermodel(skolemized, conclusion) is not None:
+            continue
+        how = _follows(skolemized, claims, limits)
+        if how is not None:
+            anonymous = ", ".join(f"`{w.bound}` of `{w.quantifier}`" for w in reading if is_anonymous(w.witness))
+            return f"{what}: {how}, with {anonymous} witnessed by a symbol of nothing else (the claim needs no name for it)"
+        return False
+    return readings.exhaustive
 
 
 def _not_refuted_by_uncited(result: StepResult, leaves: Sequence[str]) -> StepResult:

@@ -168,6 +168,65 @@ def witness_readings(
     A quantifier may be left unwitnessed.  ``replace`` applies a witnessing
     (the kernel's Skolemization; None when it refuses).  At most ``bound``
     choices are explored."""
+    return _readings(premises, conclusion, new, bound, replace, anonymous=False)
+
+
+def readings_with_anonymous_outer(
+    premises: Sequence[Formula],
+    conclusion: Clause | Formula,
+    new: set[Symbol],
+    bound: int,
+    replace: Callable[[Formula, Witnessing], Formula | None],
+) -> Readings:
+    """The pairings in which some quantifier around another, witnessed by
+    none of the new symbols, is witnessed by a symbol of no premise and not
+    of the conclusion (named ``anonymous_N``).  A prover that writes only
+    the clauses its refutation uses may print the clause with the inner
+    witness (`p(X0,sk2(X0))`) and not the one with the outer existential's
+    constant: the inner witness then takes no argument for it.  Entailment
+    from the premises so Skolemized is over every meaning of the anonymous
+    symbols, which occur nowhere else, so the claim follows from the
+    premises with the outer existential as it is.  Only such pairings are
+    returned (the others are :func:`witness_readings`')."""
+    return _readings(premises, conclusion, new, bound, replace, anonymous=True)
+
+
+def is_anonymous(witness: Term) -> bool:
+    return witness.symbol.startswith(_ANONYMOUS)
+
+
+_ANONYMOUS = "anonymous_"
+
+
+def _anonymous_witness(taken: set[str], free_in_order: list[Term]) -> Term:
+    number = 0
+    while f"{_ANONYMOUS}{number}" in taken:
+        number += 1
+    taken.add(f"{_ANONYMOUS}{number}")
+    return application(f"{_ANONYMOUS}{number}", tuple(free_in_order))
+
+
+def _encloses_quantifier(quantifier: Formula) -> bool:
+    return any(f.connective in (EXISTS, FORALL) for f, _, _ in _with_context(quantifier.arguments[0]))
+
+
+def _readings(
+    premises: Sequence[Formula],
+    conclusion: Clause | Formula,
+    new: set[Symbol],
+    bound: int,
+    replace: Callable[[Formula, Witnessing], Formula | None],
+    anonymous: bool,
+) -> Readings:
+    taken = {name for name, _ in new}
+    if anonymous:
+        for formula in (*premises, conclusion if isinstance(conclusion, Formula) else None):
+            if formula is not None:
+                taken |= {f.atom.symbol for f, _, _ in _with_context(formula) if f.atom is not None}
+                taken |= {t.symbol for f, _, _ in _with_context(formula) if f.atom is not None
+                          for _, t in subterms(f.atom) if not t.is_variable}
+        if isinstance(conclusion, Clause):
+            taken |= {t.symbol for literal in conclusion.literals for _, t in subterms(literal.atom) if not t.is_variable}
     uses = {(use.symbol, use.arity): use for use in _uses(conclusion, new)}
     predicates = sorted(new - uses.keys())
     if predicates:
@@ -188,7 +247,8 @@ def witness_readings(
         budget -= 1
         current, remaining, skipped, path = stack.pop()
         if not remaining:
-            found.append(path)
+            if not anonymous or any(is_anonymous(w.witness) for w in path):
+                found.append(path)
             continue
         open_quantifiers, wrong = _replaceable(current, skipped)
         improper = improper or wrong
@@ -212,6 +272,12 @@ def witness_readings(
                 if replaced is not None:
                     premises_after = current[:index] + (replaced,) + current[index + 1 :]
                     children.append((premises_after, remaining - {symbol}, skipped, (*path, witnessing)))
+        if anonymous and _encloses_quantifier(quantifier):
+            witnessing = Witnessing(index, quantifier, quantifier.variables[0], _anonymous_witness(taken, free_in_order))
+            replaced = replace(current[index], witnessing)
+            if replaced is not None:
+                premises_after = current[:index] + (replaced,) + current[index + 1 :]
+                children.append((premises_after, remaining, skipped, (*path, witnessing)))
         children.append((current, remaining, skipped | {(index, quantifier)}, path))
         stack.extend(reversed(children))
     return Readings(tuple(found), True, None if found else _misfit(new, uses, short, improper))

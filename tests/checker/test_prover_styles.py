@@ -661,38 +661,67 @@ def test_a_split_symbol_defined_twice_in_a_refutation_first_layout_is_not_fresh(
     _rejected_at(report, steps, "f31", "not_fresh")
 
 
-# A clause of a Skolemized formula may be written before the clause that
-# introduces the outer witness it rests on: `device(sK1(X0)) | ...` of
-# `? [X0] : ! [X1] : (? [X2] : ... | ...)` comes before the clause with
-# sK0.  Alone, sK1 would have to depend on the outer existential, and the
-# clause was refuted; it is checked with its later co-introducers.
+# A clause of a Skolemized formula may hold an inner witness and not the
+# outer existential's: `device(sK1(X0)) | ...` of
+# `? [X0] : ! [X1] : (? [X2] : (~ grant(X1,X0,X2) & device(X2)) | ...)`,
+# written before the clause with sK0, or printed alone by a prover that
+# prints only the clauses its refutation uses.  sK1 rightly takes no
+# argument for X0; the step was refuted under the only pairing found (sK1
+# for X0).  The outer existential is now also witnessed by a symbol of
+# nothing else, which the entailment is over every meaning of.
 
 GRANTS = "access_grants_printed_alternating_goal"
+GUARDS = "guard_doors_printed_inner_witness_alone"
 
 
-def test_a_clause_before_its_outer_witness_is_checked_with_the_later_clauses():
-    report = check(str(STYLES / GRANTS / "proof.p"), str(STYLES / GRANTS / "problem.p"))
-    steps = {step.name: step for step in report.steps}
+@pytest.mark.parametrize("folder, step", [(GRANTS, "f13"), (GUARDS, "zip_derived_cl1")])
+def test_an_inner_witness_is_paired_with_the_outer_existential_left_anonymous(folder, step):
+    report = check(str(STYLES / folder / "proof.p"), str(STYLES / folder / "problem.p"))
+    steps = {s.name: s for s in report.steps}
     assert report.verdict == ACCEPTED
-    assert "introducing sK0/0, sK1/1 (with the 1 other step introducing them)" in steps["f13"].message
+    assert "witnessed by a symbol of nothing else" in steps[step].message
 
 
-def test_a_clause_that_does_not_fit_its_later_co_introducers_is_refused(tmp_path):
-    # f14 holds without f13; with the device literal's sign turned f13 does
-    # not hold with it under any pairing.  Counter-model: one user owning
-    # one thing, no device.
+def test_an_inner_witness_that_forgets_its_universal_is_still_refuted(tmp_path):
+    # `sk__2` a constant: one door for every guard.  No pairing fits with
+    # the room anonymous (the door depends on the guard); as the room's
+    # witness it has a counter-model: two elements, the room 1, both
+    # guards assigned door 0, the room opening door 0 for both; the claim
+    # fails for guard 0 and door 1.
+    report, steps = _mutant(
+        tmp_path, GUARDS,
+        "(assigned(X0, sk__2(X0)))",
+        "(assigned(X0, sk__2))",
+    )
+    _rejected_at(report, steps, "zip_derived_cl1", "countermodel")
+
+
+def test_an_inner_witness_on_the_wrong_side_is_refuted_under_every_pairing(tmp_path):
+    # Counter-model under each pairing, the anonymous room's included
+    # (that of the room's: two elements each assigned the other, sk__2
+    # constantly 0; the claim fails for guard 0).
+    report, steps = _mutant(
+        tmp_path, GUARDS,
+        "(assigned(X0, sk__2(X0)))",
+        "(assigned(sk__2(X0), X0))",
+    )
+    _rejected_at(report, steps, "zip_derived_cl1", "countermodel")
+
+
+def test_a_clause_with_only_the_inner_witness_that_does_not_follow_is_refuted(tmp_path):
+    # f13 with the device literal's sign turned.  Counter-model: one user
+    # owning one thing, no device.
     report, steps = _mutant(
         tmp_path, GRANTS,
         "cnf(f13,plain,( device(sK1(X0)) | ~device(X1) | ~owns(X0,X1) )",
         "cnf(f13,plain,( device(sK1(X0)) | device(X1) | ~owns(X0,X1) )",
     )
-    _rejected_at(report, steps, "f13", "witness_reused")
+    _rejected_at(report, steps, "f13", "countermodel")
 
 
-def test_a_later_co_introducer_that_does_not_hold_is_refuted_there_not_before(tmp_path):
+def test_a_later_clause_with_both_witnesses_is_checked_with_the_first(tmp_path):
     # f13 is right; f14 with a sign turned has a counter-model with f13 (one
-    # user owning a granted non-device): the fault is f14's, and f13 is not
-    # refuted for it.
+    # user owning a granted non-device): the fault is f14's.
     report, steps = _mutant(
         tmp_path, GRANTS,
         "cnf(f14,plain,( ~grant(X0,sK0,sK1(X0)) | ~device(X1) | ~owns(X0,X1) )",
