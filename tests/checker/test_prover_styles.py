@@ -547,6 +547,73 @@ MUTANTS = [
         "cnf(f19,plain,( allowed(X0) | ~badge(X0) | ~banned(X0) )",
         "f19", "countermodel",
     ),
+    # A negated conjecture leaf of a problem in clause form that is not the
+    # problem's: the crew not rostered for the night route itself.
+    _M(
+        "night_crews_printed_clause_problem",
+        "cnf(f6,negated_conjecture,( ~rostered(crew(night),next(night)) )",
+        "cnf(f6,negated_conjecture,( ~rostered(crew(night),night) )",
+        "f6", "not_in_problem",
+    ),
+    # Rectify taking the shadowed inner variable for the outer one: the
+    # valve held must be open.  Counter-model: bank 0 holds valves 0 and 1,
+    # only 1 open.
+    _M(
+        "valve_banks_printed_shadowed_variables",
+        "fof(f5,plain,( ! [X0,X1] : (holds(X0,X1) => ? [X2] : (holds(X0,X2) & open(X2))) )",
+        "fof(f5,plain,( ! [X0,X1] : (holds(X0,X1) => ? [X2] : (holds(X0,X2) & open(X1))) )",
+        "f5", "countermodel",
+    ),
+    # Condensation that drops the literal the instance keeps.  Counter-model:
+    # two pallets, only the lot tagged.
+    _M(
+        "pallet_yard_printed_simplification_rules",
+        "cnf(f30,plain,( tagged(lot) ),inference(condensation,[],[f18]))",
+        "cnf(f30,plain,( tagged(X0) ),inference(condensation,[],[f18]))",
+        "f30", "countermodel",
+    ),
+    # Inner rewriting that drops the equation it rewrote by.  Counter-model:
+    # code swaps two pallets, pallet 0 (the lot) tagged, nothing inspected.
+    _M(
+        "pallet_yard_printed_simplification_rules",
+        "cnf(f31,plain,( inspected(lot) | ~tagged(X0) | code(X0) != lot )",
+        "cnf(f31,plain,( inspected(lot) | ~tagged(X0) )",
+        "f31", "countermodel",
+    ),
+    # A clause split from the five-witness Skolemization with the two stops
+    # of a route swapped.  Counter-model: found by the search over two
+    # terminals (every Skolem function tabled).
+    _M(
+        "network_legs_printed_five_witnesses",
+        "cnf(c_0_6, plain, (leg(esk1_2(X1,X2),esk2_2(X1,X2))|~route(X1,X2))",
+        "cnf(c_0_6, plain, (leg(esk2_2(X1,X2),esk1_2(X1,X2))|~route(X1,X2))",
+        "c_0_6", "countermodel",
+    ),
+    # The inner axiom of choice under the exclusive or, with the crossing
+    # turned round.  Counter-model: sK0 = 0, sK1 = 1, slots hold only
+    # crossings from 0, sK2 = 1.
+    _M(
+        "ferry_slots_printed_negated_xor_goal_nested_choice",
+        "fof(f11,plain,( ? [X3] : holds(sK0,sK1,X3) => holds(sK0,sK1,sK2) )",
+        "fof(f11,plain,( ? [X3] : holds(sK0,sK1,X3) => holds(sK1,sK0,sK2) )",
+        "f11", "countermodel",
+    ),
+    # A split clause reading the negative ground component as positive.
+    # Counter-model: pilot off, nothing lit or shut, every split symbol false.
+    _M(
+        "boiler_room_printed_avatar_negative_ground_component",
+        "cnf(f22,plain,( spl0_0 | ~spl0_1 | spl0_2 )",
+        "cnf(f22,plain,( spl0_0 | spl0_1 | spl0_2 )",
+        "f22", "countermodel",
+    ),
+    # A leaf introduced as a tautology that is none.  Counter-model: v2 open,
+    # v1 not.
+    _M(
+        "vent_checks_printed_tautology_leaves",
+        "cnf(f12,plain,( open(v1) | ~open(v1) )",
+        "cnf(f12,plain,( open(v1) | ~open(v2) )",
+        "f12", "countermodel",
+    ),
 ]
 
 
