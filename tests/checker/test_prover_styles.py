@@ -614,6 +614,15 @@ MUTANTS = [
         "cnf(f12,plain,( open(v1) | ~open(v2) )",
         "f12", "countermodel",
     ),
+    # Two definitions folded by nested apply_def records as a disjunction.
+    # Counter-model: one store whose valve is not closed (epred1_1 false)
+    # and whose sensor is live (epred2_1 true), not safe.
+    _M(
+        "cold_store_printed_nested_apply_def",
+        "fof(c_0_6, axiom, ![X1]:(safe(X1)<=>(epred1_1(X1)&epred2_1(X1)))",
+        "fof(c_0_6, axiom, ![X1]:(safe(X1)<=>(epred1_1(X1)|epred2_1(X1)))",
+        "c_0_6", "countermodel",
+    ),
 ]
 
 
