@@ -48,7 +48,6 @@ from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.unfolding import find_unfolding
 from checker.search.witnesses import (
     Witnessing,
-    is_anonymous,
     matching_witnesses,
     readings_with_anonymous_outer,
     witness_readings,
@@ -399,7 +398,7 @@ def _with_anonymous_outer(
             continue
         how = _follows(skolemized, claims, limits)
         if how is not None:
-            anonymous = ", ".join(f"`{w.bound}` of `{w.quantifier}`" for w in reading if is_anonymous(w.witness))
+            anonymous = ", ".join(f"`{w.bound}` of `{w.quantifier}`" for w in reading if w.witness.symbol in readings.anonymous)
             return f"{what}: {how}, with {anonymous} witnessed by a symbol of nothing else (the claim needs no name for it)"
         return False
     return readings.exhaustive

@@ -21,6 +21,7 @@ from checker.kernel.formulas import (
     Formula,
     argument_polarities,
     free_variables,
+    symbols_of_formula,
 )
 from checker.kernel.terms import Term, application, subterms, variable
 from checker.search.findings import PAIRINGS, checked_pairing, hook
@@ -134,6 +135,9 @@ class Readings:
     found: tuple[tuple[Witnessing, ...], ...]
     exhaustive: bool
     misfit: Misfit | None
+    anonymous: frozenset[str] = frozenset()
+    """the symbols of nothing else put in for outer existentials
+    (:func:`readings_with_anonymous_outer`)"""
 
 
 def _given_readings(args: tuple, kwargs: dict, pairings: tuple) -> Readings:
@@ -191,19 +195,14 @@ def readings_with_anonymous_outer(
     return _readings(premises, conclusion, new, bound, replace, anonymous=True)
 
 
-def is_anonymous(witness: Term) -> bool:
-    return witness.symbol.startswith(_ANONYMOUS)
-
-
-_ANONYMOUS = "anonymous_"
-
-
-def _anonymous_witness(taken: set[str], free_in_order: list[Term]) -> Term:
+def _anonymous_witness(taken: set[str], made: set[str], free_in_order: list[Term]) -> Term:
+    """A term of a symbol named in nothing ``taken`` over the free variables."""
     number = 0
-    while f"{_ANONYMOUS}{number}" in taken:
+    while f"anonymous_{number}" in taken:
         number += 1
-    taken.add(f"{_ANONYMOUS}{number}")
-    return application(f"{_ANONYMOUS}{number}", tuple(free_in_order))
+    taken.add(f"anonymous_{number}")
+    made.add(f"anonymous_{number}")
+    return application(f"anonymous_{number}", tuple(free_in_order))
 
 
 def _encloses_quantifier(quantifier: Formula) -> bool:
@@ -218,15 +217,12 @@ def _readings(
     replace: Callable[[Formula, Witnessing], Formula | None],
     anonymous: bool,
 ) -> Readings:
-    taken = {name for name, _ in new}
+    made: set[str] = set()
+    taken = {name for name, _ in new} if anonymous else set()
     if anonymous:
-        for formula in (*premises, conclusion if isinstance(conclusion, Formula) else None):
-            if formula is not None:
-                taken |= {f.atom.symbol for f, _, _ in _with_context(formula) if f.atom is not None}
-                taken |= {t.symbol for f, _, _ in _with_context(formula) if f.atom is not None
-                          for _, t in subterms(f.atom) if not t.is_variable}
-        if isinstance(conclusion, Clause):
-            taken |= {t.symbol for literal in conclusion.literals for _, t in subterms(literal.atom) if not t.is_variable}
+        named = conclusion.symbols() if isinstance(conclusion, Clause) else symbols_of_formula(conclusion)
+        taken |= {name for name, _ in named}
+        taken |= {name for premise in premises for name, _ in symbols_of_formula(premise)}
     uses = {(use.symbol, use.arity): use for use in _uses(conclusion, new)}
     predicates = sorted(new - uses.keys())
     if predicates:
@@ -243,11 +239,11 @@ def _readings(
     ]
     while stack:
         if budget <= 0 or len(found) >= bound:
-            return Readings(tuple(found), False, None)
+            return Readings(tuple(found), False, None, frozenset(made))
         budget -= 1
         current, remaining, skipped, path = stack.pop()
         if not remaining:
-            if not anonymous or any(is_anonymous(w.witness) for w in path):
+            if not anonymous or any(w.witness.symbol in made for w in path):
                 found.append(path)
             continue
         open_quantifiers, wrong = _replaceable(current, skipped)
@@ -273,14 +269,14 @@ def _readings(
                     premises_after = current[:index] + (replaced,) + current[index + 1 :]
                     children.append((premises_after, remaining - {symbol}, skipped, (*path, witnessing)))
         if anonymous and _encloses_quantifier(quantifier):
-            witnessing = Witnessing(index, quantifier, quantifier.variables[0], _anonymous_witness(taken, free_in_order))
+            witnessing = Witnessing(index, quantifier, quantifier.variables[0], _anonymous_witness(taken, made, free_in_order))
             replaced = replace(current[index], witnessing)
             if replaced is not None:
                 premises_after = current[:index] + (replaced,) + current[index + 1 :]
                 children.append((premises_after, remaining, skipped, (*path, witnessing)))
         children.append((current, remaining, skipped | {(index, quantifier)}, path))
         stack.extend(reversed(children))
-    return Readings(tuple(found), True, None if found else _misfit(new, uses, short, improper))
+    return Readings(tuple(found), True, None if found else _misfit(new, uses, short, improper), frozenset(made))
 
 
 def _misfit(new: set[Symbol], uses: dict[Symbol, Term], short: list, improper: Formula | None) -> Misfit:
