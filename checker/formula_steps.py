@@ -46,7 +46,12 @@ from checker.search.models import find_countermodel
 from checker.search.propositional import find_unit_entailment
 from checker.search.reconstruct import SearchLimits, reconstruct
 from checker.search.unfolding import find_unfolding
-from checker.search.witnesses import Witnessing, matching_witnesses, witness_readings
+from checker.search.witnesses import (
+    Witnessing,
+    matching_witnesses,
+    readings_with_anonymous_outer,
+    witness_readings,
+)
 from formats.derivation import Origin
 
 
@@ -309,7 +314,10 @@ def _introduction(
             premises, readings = scoped, retry
             what = f"{what} (miniscoped first)"
     if not readings.found:
-        if readings.misfit is not None:
+        outer = _with_anonymous_outer(premises, conclusion, claims, new, limits, what)
+        if isinstance(outer, str):
+            return step_result(step, RECONSTRUCTED, outer)
+        if readings.misfit is not None and outer:
             return step_result(step, FAILED, readings.misfit.message, (f"reason: {readings.misfit.reason}",))
         return step_result(step, UNPROVEN, f"no pairing of new symbols with quantifiers found within the search bounds (claimed: {what})")
     replayed = [_replay(premises, reading) for reading in readings.found]
@@ -321,25 +329,16 @@ def _introduction(
             models.append(_countermodel(skolemized, conclusion))
             if models[-1] is not None:
                 continue
-        # Each claim from the same Skolemized premises: then so does their
-        # conjunction, at the cost of several small searches, not one large.
-        lengths = []
-        for claim in claims:
-            wanted = as_formula(claim)
-            if any(alpha_equivalent(p, wanted) for p in skolemized):
-                lengths.append(0)
-                continue
-            lengths.append(_refutation_length(skolemized, wanted, limits))
-            if lengths[-1] is None:
-                break
-        if None not in lengths:
-            how = "alpha-equivalent to a Skolemized premise, or its clauses subsumed by theirs" if not any(lengths) else (
-                f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences")
+        how = _follows(skolemized, claims, limits)
+        if how is not None:
             return step_result(step, RECONSTRUCTED, f"{what}: {how}")
+    outer = _with_anonymous_outer(premises, conclusion, claims, new, limits, what)
+    if isinstance(outer, str):
+        return step_result(step, RECONSTRUCTED, outer)
     # Say which quantifier each symbol was taken to witness: that pairing is
     # part of what did not hold.
     pairing = [f"Skolem term `{w.witness}` for `{w.bound}` of `{w.quantifier}`" for w in readings.found[0]]
-    if readings.exhaustive:
+    if readings.exhaustive and outer:
         models.insert(0, _countermodel(replayed[0], conclusion))
     else:
         models = [None]
@@ -359,6 +358,50 @@ def _introduction(
         f"{'' if readings.exhaustive else ' (not every pairing was tried)'} (claimed: {what})",
         tuple(pairing),
     )
+
+
+def _follows(skolemized: Sequence[Formula], claims: Sequence[Clause | Formula], limits: SearchLimits) -> str | None:
+    """How each claim follows from the same Skolemized premises (then so
+    does their conjunction, at the cost of several small searches, not one
+    large), or None."""
+    lengths = []
+    for claim in claims:
+        wanted = as_formula(claim)
+        if any(alpha_equivalent(p, wanted) for p in skolemized):
+            lengths.append(0)
+            continue
+        lengths.append(_refutation_length(skolemized, wanted, limits))
+        if lengths[-1] is None:
+            return None
+    if not any(lengths):
+        return "alpha-equivalent to a Skolemized premise, or its clauses subsumed by theirs"
+    return f"kernel replayed {'refutations' if len(claims) > 1 else 'a refutation'} in {sum(lengths)} inferences"
+
+
+def _with_anonymous_outer(
+    premises: Sequence[Formula],
+    conclusion: Formula,
+    claims: Sequence[Clause | Formula],
+    new: set,
+    limits: SearchLimits,
+    what: str,
+) -> str | bool:
+    """The pairings that witness an outer existential by a symbol of nothing
+    else (checker/search/witnesses.py: readings_with_anonymous_outer): the
+    message when one shows the claims, else whether every such pairing was
+    tried and has a kernel-confirmed counter-model (only then may the step
+    be refuted or a missing dependency be final)."""
+    readings = readings_with_anonymous_outer(premises, conclusion, new, limits.witness_readings, _kernel_skolemize)
+    for reading in readings.found:
+        skolemized = _replay(premises, reading)
+        if _countermodel(skolemized, conclusion) is not None:
+            continue
+        how = _follows(skolemized, claims, limits)
+        if how is not None:
+            anonymous = ", ".join(f"`{w.bound}` of `{w.quantifier}`" for w in reading if w.witness.symbol in readings.anonymous)
+            return f"{what}: {how}, with {anonymous} witnessed by a symbol of nothing else (the claim needs no name for it)"
+        return False
+    return readings.exhaustive
 
 
 def _not_refuted_by_uncited(result: StepResult, leaves: Sequence[str]) -> StepResult:

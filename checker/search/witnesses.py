@@ -21,6 +21,7 @@ from checker.kernel.formulas import (
     Formula,
     argument_polarities,
     free_variables,
+    symbols_of_formula,
 )
 from checker.kernel.terms import Term, application, subterms, variable
 from checker.search.findings import PAIRINGS, checked_pairing, hook
@@ -134,6 +135,9 @@ class Readings:
     found: tuple[tuple[Witnessing, ...], ...]
     exhaustive: bool
     misfit: Misfit | None
+    anonymous: frozenset[str] = frozenset()
+    """the symbols of nothing else put in for outer existentials
+    (:func:`readings_with_anonymous_outer`)"""
 
 
 def _given_readings(args: tuple, kwargs: dict, pairings: tuple) -> Readings:
@@ -168,6 +172,57 @@ def witness_readings(
     A quantifier may be left unwitnessed.  ``replace`` applies a witnessing
     (the kernel's Skolemization; None when it refuses).  At most ``bound``
     choices are explored."""
+    return _readings(premises, conclusion, new, bound, replace, anonymous=False)
+
+
+def readings_with_anonymous_outer(
+    premises: Sequence[Formula],
+    conclusion: Clause | Formula,
+    new: set[Symbol],
+    bound: int,
+    replace: Callable[[Formula, Witnessing], Formula | None],
+) -> Readings:
+    """The pairings in which some quantifier around another, witnessed by
+    none of the new symbols, is witnessed by a symbol of no premise and not
+    of the conclusion (named ``anonymous_N``).  A prover that writes only
+    the clauses its refutation uses may print the clause with the inner
+    witness (`p(X0,sk2(X0))`) and not the one with the outer existential's
+    constant: the inner witness then takes no argument for it.  Entailment
+    from the premises so Skolemized is over every meaning of the anonymous
+    symbols, which occur nowhere else, so the claim follows from the
+    premises with the outer existential as it is.  Only such pairings are
+    returned (the others are :func:`witness_readings`')."""
+    return _readings(premises, conclusion, new, bound, replace, anonymous=True)
+
+
+def _anonymous_witness(taken: set[str], made: set[str], free_in_order: list[Term]) -> Term:
+    """A term of a symbol named in nothing ``taken`` over the free variables."""
+    number = 0
+    while f"anonymous_{number}" in taken:
+        number += 1
+    taken.add(f"anonymous_{number}")
+    made.add(f"anonymous_{number}")
+    return application(f"anonymous_{number}", tuple(free_in_order))
+
+
+def _encloses_quantifier(quantifier: Formula) -> bool:
+    return any(f.connective in (EXISTS, FORALL) for f, _, _ in _with_context(quantifier.arguments[0]))
+
+
+def _readings(
+    premises: Sequence[Formula],
+    conclusion: Clause | Formula,
+    new: set[Symbol],
+    bound: int,
+    replace: Callable[[Formula, Witnessing], Formula | None],
+    anonymous: bool,
+) -> Readings:
+    made: set[str] = set()
+    taken = {name for name, _ in new} if anonymous else set()
+    if anonymous:
+        named = conclusion.symbols() if isinstance(conclusion, Clause) else symbols_of_formula(conclusion)
+        taken |= {name for name, _ in named}
+        taken |= {name for premise in premises for name, _ in symbols_of_formula(premise)}
     uses = {(use.symbol, use.arity): use for use in _uses(conclusion, new)}
     predicates = sorted(new - uses.keys())
     if predicates:
@@ -184,11 +239,12 @@ def witness_readings(
     ]
     while stack:
         if budget <= 0 or len(found) >= bound:
-            return Readings(tuple(found), False, None)
+            return Readings(tuple(found), False, None, frozenset(made))
         budget -= 1
         current, remaining, skipped, path = stack.pop()
         if not remaining:
-            found.append(path)
+            if not anonymous or any(w.witness.symbol in made for w in path):
+                found.append(path)
             continue
         open_quantifiers, wrong = _replaceable(current, skipped)
         improper = improper or wrong
@@ -212,9 +268,15 @@ def witness_readings(
                 if replaced is not None:
                     premises_after = current[:index] + (replaced,) + current[index + 1 :]
                     children.append((premises_after, remaining - {symbol}, skipped, (*path, witnessing)))
+        if anonymous and _encloses_quantifier(quantifier):
+            witnessing = Witnessing(index, quantifier, quantifier.variables[0], _anonymous_witness(taken, made, free_in_order))
+            replaced = replace(current[index], witnessing)
+            if replaced is not None:
+                premises_after = current[:index] + (replaced,) + current[index + 1 :]
+                children.append((premises_after, remaining, skipped, (*path, witnessing)))
         children.append((current, remaining, skipped | {(index, quantifier)}, path))
         stack.extend(reversed(children))
-    return Readings(tuple(found), True, None if found else _misfit(new, uses, short, improper))
+    return Readings(tuple(found), True, None if found else _misfit(new, uses, short, improper), frozenset(made))
 
 
 def _misfit(new: set[Symbol], uses: dict[Symbol, Term], short: list, improper: Formula | None) -> Misfit:

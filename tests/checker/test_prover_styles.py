@@ -436,6 +436,193 @@ MUTANTS = [
         "cnf(f43,plain,( spl0_2 | spl0_3 )",
         "f43", "countermodel",
     ),
+    # The second round of hand-written derivations (conventions and
+    # combinations the first did not show), one single change each.
+    # The exclusive or written out with a sign lost.  Counter-model: one door,
+    # sealed and not open.
+    _M(
+        "interlock_doors_printed_xor_connectives",
+        "fof(f12,plain,( ! [X0] : ((~open(X0) | ~sealed(X0)) & (open(X0) | sealed(X0))) )",
+        "fof(f12,plain,( ! [X0] : ((~open(X0) | ~sealed(X0)) & (open(X0) | ~sealed(X0))) )",
+        "f12", "countermodel",
+    ),
+    # A clause of the nested equivalences with a sign turned.  Counter-model:
+    # one room, certified and filtered, neither pressured nor staffed.
+    _M(
+        "clean_room_printed_nested_equivalences",
+        "cnf(f20,plain,( ~filtered(X0) | pressured(X0) | ~staffed(X0) | ~certified(X0) )",
+        "cnf(f20,plain,( ~filtered(X0) | pressured(X0) | staffed(X0) | ~certified(X0) )",
+        "f20", "countermodel",
+    ),
+    # The four-argument witness linked in the class's week instead of the
+    # relay's.  Counter-model: two elements, link only in week 0 (found by
+    # the search, sK0 tabled over all 16 argument tuples).
+    _M(
+        "freight_hubs_printed_wide_choice",
+        "cnf(f15,plain,( link(X0,sK0(X0,X1,X2,X3),X3) | ~relay(X0,X1,X2,X3) )",
+        "cnf(f15,plain,( link(X0,sK0(X0,X1,X2,X3),X2) | ~relay(X0,X1,X2,X3) )",
+        "f15", "countermodel",
+    ),
+    # Two names folded as a disjunction.  Counter-model: one station with a
+    # valve not closed (sP0 false), sP1 true, not safe.
+    _M(
+        "pump_station_printed_two_definitions_folded",
+        "fof(f9,plain,( ! [X0] : (safe(X0) <=> (sP0(X0) & sP1(X0))) )",
+        "fof(f9,plain,( ! [X0] : (safe(X0) <=> (sP0(X0) | sP1(X0))) )",
+        "f9", "countermodel",
+    ),
+    # The backup's split clause naming the wrong component.  Counter-model:
+    # every cell cooled, none heated or drained (spl0_1 true, spl0_0 and
+    # spl0_5 false, as their definitions say).
+    _M(
+        "cooling_loop_printed_avatar_many_components",
+        "cnf(f27,plain,( spl0_1 | spl0_5 )",
+        "cnf(f27,plain,( spl0_0 | spl0_5 )",
+        "f27", "countermodel",
+    ),
+    # Superposition of a non-unit equation that drops the side condition it
+    # brings.  Counter-model: depot swaps two sites, site 0 remote, hub 0 runs
+    # slow (0), site 0 not audited.
+    _M(
+        "depot_rates_printed_nonunit_superposition",
+        "cnf(f20,plain,( rate(hub) != slow | audited(X0) | remote(X0) )",
+        "cnf(f20,plain,( rate(hub) != slow | audited(X0) )",
+        "f20", "countermodel",
+    ),
+    # Equality resolution binding the valve to its own gate.  Counter-model:
+    # gate_of constantly 1, 0 locked, nothing isolated.
+    _M(
+        "gate_isolation_printed_nested_records_by_hand",
+        "cnf(c_0_20, plain, (isolated(X1)|~locked(gate_of(X1)))",
+        "cnf(c_0_20, plain, (isolated(X1)|~locked(X1))",
+        "c_0_20", "countermodel",
+    ),
+    # thf: subsumption resolution without the unit `lockdown` it needs.
+    # Counter-model: lockdown false, no reader armed.
+    _M(
+        "badge_readers_printed_thf_bool_atoms",
+        "! [X0 : reader] : (armed @ X0)),\n  inference(subsumption_resolution,[],[f12,f13])",
+        "! [X0 : reader] : (armed @ X0)),\n  inference(subsumption_resolution,[],[f12])",
+        "f15", "countermodel",
+    ),
+    # A leaf citing a statement of the included file that the include does not
+    # select (`relay_noisy` would contradict `sealed_quiet` for s1).
+    _M(
+        "relay_shelter_printed_included_roles",
+        "fof(f3,axiom,( ! [X0] : (relay_in(X0) => powered(X0)) ),file('problem.p',relay_powered_here))",
+        "fof(f3,axiom,( ! [X0] : (relay_in(X0) => noisy(X0)) ),file('shelter_axioms.ax',relay_noisy))",
+        "f3", "not_in_problem",
+    ),
+    # Typed over $i: superposition that keeps the inequality positive.
+    # Counter-model: locker swaps two keys, sK0 = sK1 = 0.
+    _M(
+        "locker_keys_printed_tff_individuals",
+        "cnf(f16,plain,( sK1 = X0 | locker(sK0) != locker(X0) )",
+        "cnf(f16,plain,( sK1 = X0 | locker(sK0) = locker(X0) )",
+        "f16", "countermodel",
+    ),
+    # A Skolem clause under the equivalence with its guard's sign turned.
+    # Counter-model (both pairings): one depot, sending and receiving nothing.
+    _M(
+        "route_pairs_printed_skolem_clauses_under_equivalence",
+        "cnf(f9,plain,( sends(X0,sK0(X0)) | ~receives(X0,X1) )",
+        "cnf(f9,plain,( sends(X0,sK0(X0)) | receives(X0,X1) )",
+        "f9", "countermodel",
+    ),
+    # The inner witness's clause moved to the outer constant: every officer's
+    # shift covered by the inspector.  Counter-model: two elements, covers the
+    # identity, sk__2 the identity, sk__1 = 1; the claim fails at X0 = 0.
+    _M(
+        "audit_rota_printed_quoted_rules_inner_witness",
+        "cnf(zip_derived_cl1, negated_conjecture, (covers(X0, sk__2(X0)))",
+        "cnf(zip_derived_cl1, negated_conjecture, (covers(sk__1, sk__2(X0)))",
+        "zip_derived_cl1", "countermodel",
+    ),
+    # A clause of the equivalence with ~| and <~> that reads the badge for the
+    # training.  Counter-model: one worker with a badge and a ban, untrained,
+    # not allowed.
+    _M(
+        "site_gates_printed_negated_connectives_in_equivalence",
+        "cnf(f19,plain,( allowed(X0) | ~banned(X0) | ~trained(X0) )",
+        "cnf(f19,plain,( allowed(X0) | ~badge(X0) | ~banned(X0) )",
+        "f19", "countermodel",
+    ),
+    # A negated conjecture leaf of a problem in clause form that is not the
+    # problem's: the crew not rostered for the night route itself.
+    _M(
+        "night_crews_printed_clause_problem",
+        "cnf(f6,negated_conjecture,( ~rostered(crew(night),next(night)) )",
+        "cnf(f6,negated_conjecture,( ~rostered(crew(night),night) )",
+        "f6", "not_in_problem",
+    ),
+    # Rectify taking the shadowed inner variable for the outer one: the
+    # valve held must be open.  Counter-model: bank 0 holds valves 0 and 1,
+    # only 1 open.
+    _M(
+        "valve_banks_printed_shadowed_variables",
+        "fof(f5,plain,( ! [X0,X1] : (holds(X0,X1) => ? [X2] : (holds(X0,X2) & open(X2))) )",
+        "fof(f5,plain,( ! [X0,X1] : (holds(X0,X1) => ? [X2] : (holds(X0,X2) & open(X1))) )",
+        "f5", "countermodel",
+    ),
+    # Condensation that drops the literal the instance keeps.  Counter-model:
+    # two pallets, only the lot tagged.
+    _M(
+        "pallet_yard_printed_simplification_rules",
+        "cnf(f30,plain,( tagged(lot) ),inference(condensation,[],[f18]))",
+        "cnf(f30,plain,( tagged(X0) ),inference(condensation,[],[f18]))",
+        "f30", "countermodel",
+    ),
+    # Inner rewriting that drops the equation it rewrote by.  Counter-model:
+    # code swaps two pallets, pallet 0 (the lot) tagged, nothing inspected.
+    _M(
+        "pallet_yard_printed_simplification_rules",
+        "cnf(f31,plain,( inspected(lot) | ~tagged(X0) | code(X0) != lot )",
+        "cnf(f31,plain,( inspected(lot) | ~tagged(X0) )",
+        "f31", "countermodel",
+    ),
+    # A clause split from the five-witness Skolemization with the two stops
+    # of a route swapped.  Counter-model: found by the search over two
+    # terminals (every Skolem function tabled).
+    _M(
+        "network_legs_printed_five_witnesses",
+        "cnf(c_0_6, plain, (leg(esk1_2(X1,X2),esk2_2(X1,X2))|~route(X1,X2))",
+        "cnf(c_0_6, plain, (leg(esk2_2(X1,X2),esk1_2(X1,X2))|~route(X1,X2))",
+        "c_0_6", "countermodel",
+    ),
+    # The inner axiom of choice under the exclusive or, with the crossing
+    # turned round.  Counter-model: sK0 = 0, sK1 = 1, slots hold only
+    # crossings from 0, sK2 = 1.
+    _M(
+        "ferry_slots_printed_negated_xor_goal_nested_choice",
+        "fof(f11,plain,( ? [X3] : holds(sK0,sK1,X3) => holds(sK0,sK1,sK2) )",
+        "fof(f11,plain,( ? [X3] : holds(sK0,sK1,X3) => holds(sK1,sK0,sK2) )",
+        "f11", "countermodel",
+    ),
+    # A split clause reading the negative ground component as positive.
+    # Counter-model: pilot off, nothing lit or shut, every split symbol false.
+    _M(
+        "boiler_room_printed_avatar_negative_ground_component",
+        "cnf(f22,plain,( spl0_0 | ~spl0_1 | spl0_2 )",
+        "cnf(f22,plain,( spl0_0 | spl0_1 | spl0_2 )",
+        "f22", "countermodel",
+    ),
+    # A leaf introduced as a tautology that is none.  Counter-model: v2 open,
+    # v1 not.
+    _M(
+        "vent_checks_printed_tautology_leaves",
+        "cnf(f12,plain,( open(v1) | ~open(v1) )",
+        "cnf(f12,plain,( open(v1) | ~open(v2) )",
+        "f12", "countermodel",
+    ),
+    # Two definitions folded by nested apply_def records as a disjunction.
+    # Counter-model: one store whose valve is not closed (epred1_1 false)
+    # and whose sensor is live (epred2_1 true), not safe.
+    _M(
+        "cold_store_printed_nested_apply_def",
+        "fof(c_0_6, axiom, ![X1]:(safe(X1)<=>(epred1_1(X1)&epred2_1(X1)))",
+        "fof(c_0_6, axiom, ![X1]:(safe(X1)<=>(epred1_1(X1)|epred2_1(X1)))",
+        "c_0_6", "countermodel",
+    ),
 ]
 
 
@@ -548,3 +735,73 @@ def test_a_split_symbol_defined_twice_in_a_refutation_first_layout_is_not_fresh(
     # name both sides of the goal's equation.
     report, steps = _mutant(tmp_path, PUBLISHED, "fof(f31,plain,( spl0_1 <=>", "fof(f31,plain,( spl0_0 <=>")
     _rejected_at(report, steps, "f31", "not_fresh")
+
+
+# A clause of a Skolemized formula may hold an inner witness and not the
+# outer existential's: `device(sK1(X0)) | ...` of
+# `? [X0] : ! [X1] : (? [X2] : (~ grant(X1,X0,X2) & device(X2)) | ...)`,
+# written before the clause with sK0, or printed alone by a prover that
+# prints only the clauses its refutation uses.  sK1 rightly takes no
+# argument for X0; the step was refuted under the only pairing found (sK1
+# for X0).  The outer existential is now also witnessed by a symbol of
+# nothing else, which the entailment is over every meaning of.
+
+GRANTS = "access_grants_printed_alternating_goal"
+GUARDS = "guard_doors_printed_inner_witness_alone"
+
+
+@pytest.mark.parametrize("folder, step", [(GRANTS, "f13"), (GUARDS, "zip_derived_cl1")])
+def test_an_inner_witness_is_paired_with_the_outer_existential_left_anonymous(folder, step):
+    report = check(str(STYLES / folder / "proof.p"), str(STYLES / folder / "problem.p"))
+    steps = {s.name: s for s in report.steps}
+    assert report.verdict == ACCEPTED
+    assert "witnessed by a symbol of nothing else" in steps[step].message
+
+
+def test_an_inner_witness_that_forgets_its_universal_is_still_refuted(tmp_path):
+    # `sk__2` a constant: one door for every guard.  No pairing fits with
+    # the room anonymous (the door depends on the guard); as the room's
+    # witness it has a counter-model: two elements, the room 1, both
+    # guards assigned door 0, the room opening door 0 for both; the claim
+    # fails for guard 0 and door 1.
+    report, steps = _mutant(
+        tmp_path, GUARDS,
+        "(assigned(X0, sk__2(X0)))",
+        "(assigned(X0, sk__2))",
+    )
+    _rejected_at(report, steps, "zip_derived_cl1", "countermodel")
+
+
+def test_an_inner_witness_on_the_wrong_side_is_refuted_under_every_pairing(tmp_path):
+    # Counter-model under each pairing, the anonymous room's included
+    # (that of the room's: two elements each assigned the other, sk__2
+    # constantly 0; the claim fails for guard 0).
+    report, steps = _mutant(
+        tmp_path, GUARDS,
+        "(assigned(X0, sk__2(X0)))",
+        "(assigned(sk__2(X0), X0))",
+    )
+    _rejected_at(report, steps, "zip_derived_cl1", "countermodel")
+
+
+def test_a_clause_with_only_the_inner_witness_that_does_not_follow_is_refuted(tmp_path):
+    # f13 with the device literal's sign turned.  Counter-model: one user
+    # owning one thing, no device.
+    report, steps = _mutant(
+        tmp_path, GRANTS,
+        "cnf(f13,plain,( device(sK1(X0)) | ~device(X1) | ~owns(X0,X1) )",
+        "cnf(f13,plain,( device(sK1(X0)) | device(X1) | ~owns(X0,X1) )",
+    )
+    _rejected_at(report, steps, "f13", "countermodel")
+
+
+def test_a_later_clause_with_both_witnesses_is_checked_with_the_first(tmp_path):
+    # f13 is right; f14 with a sign turned has a counter-model with f13 (one
+    # user owning a granted non-device): the fault is f14's.
+    report, steps = _mutant(
+        tmp_path, GRANTS,
+        "cnf(f14,plain,( ~grant(X0,sK0,sK1(X0)) | ~device(X1) | ~owns(X0,X1) )",
+        "cnf(f14,plain,( ~grant(X0,sK0,sK1(X0)) | device(X1) | ~owns(X0,X1) )",
+    )
+    _rejected_at(report, steps, "f14", "countermodel")
+    assert steps["f13"].outcome not in (FAILED, REFUTED)

@@ -9,7 +9,7 @@ from checker.kernel.failure import Failure
 from checker.kernel.formulas import alpha_equivalent
 from checker.kernel.introductions import skolemize
 from checker.kernel.terms import application, variable
-from checker.search.witnesses import matching_witnesses, witness_readings
+from checker.search.witnesses import matching_witnesses, readings_with_anonymous_outer, witness_readings
 from formats.tptp import parse_clause, parse_formula
 
 V, S, W0 = variable("V"), variable("S"), variable("W0")
@@ -116,3 +116,41 @@ def test_matching_witnesses_walks_both_formulas_in_step():
     assert matching_witnesses(quantifier, parse_formula("p(X, f(X)) & q(g(X))")) is None
     assert matching_witnesses(quantifier, parse_formula("p(Z, f(X)) & q(f(X))")) is None
     assert matching_witnesses(quantifier, parse_formula("r(X, f(X)) & q(f(X))")) is None
+
+
+# An inner witness with the outer existential unnamed (common practice for
+# printers that print only the clauses a refutation uses): the outer
+# existential is witnessed by a symbol of nothing else.
+
+ROOMS = "? [X] : ! [Y] : ? [Z] : (opens(X, Y, Z) & assigned(Y, Z))"
+
+
+def test_an_inner_witness_alone_fits_only_with_the_outer_existential_anonymous():
+    premise = parse_formula(ROOMS)
+    claim = parse_clause("assigned(X0, door(X0))")
+    # Ordinary pairings: `door` can only stand for X, padded; none for Z.
+    ordinary = readings([premise], claim, {("door", 1)})
+    assert [r[0].bound for r in ordinary.found] == [variable("X")]
+    found = readings_with_anonymous_outer([premise], claim, {("door", 1)}, 64, kernel_replace)
+    assert found.exhaustive and found.anonymous == {"anonymous_0"}
+    (outer, inner), = found.found
+    assert outer.witness is application("anonymous_0", ()) and inner.bound is variable("Z")
+    assert inner.witness is application("door", (variable("Y"),))
+    assert replayed([premise], (outer, inner)) == [
+        parse_formula("! [Y] : (opens(anonymous_0, Y, door(Y)) & assigned(Y, door(Y)))")
+    ]
+
+
+def test_an_anonymous_witness_takes_a_name_of_nothing_else():
+    premise = parse_formula("? [X] : ! [Y] : ? [Z] : (opens(X, Y, Z) & anonymous_0(Y, Z))")
+    claim = parse_clause("anonymous_0(X0, door(X0))")
+    found = readings_with_anonymous_outer([premise], claim, {("door", 1)}, 64, kernel_replace)
+    assert found.anonymous == {"anonymous_1"}
+    assert found.found[0][0].witness is application("anonymous_1", ())
+
+
+def test_a_quantifier_enclosing_none_is_not_made_anonymous():
+    # `? [X] : p(X)` has nothing inside for a witness to need: no reading.
+    premise = parse_formula("(? [X] : parked(X)) & ! [Y] : ? [Z] : towed(Y, Z)")
+    found = readings_with_anonymous_outer([premise], parse_clause("towed(X0, truck(X0))"), {("truck", 1)}, 64, kernel_replace)
+    assert found.found == () and found.exhaustive
