@@ -28,7 +28,7 @@ from dataclasses import dataclass
 
 from mutation_formats import is_leaf, origin_file, parent_names
 from mutation_kinds import SOUND, UNSOUND, Mutant, symbols
-from mutation_oracle import countermodel_size, ground_entailment, is_interpreted
+from mutation_oracle import OracleGaveUp, countermodel_size, ground_entailment, is_interpreted
 
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import NOT, make
@@ -278,7 +278,10 @@ def run_mutant(mutant: Mutant, limits: SearchLimits = DEFAULT_LIMITS) -> Outcome
         path = os.path.join(scratch, f"mutant{suffix}")
         with open(path, "w", encoding="utf-8") as handle:
             handle.write(mutant.text)
-        expected = judge(mutant, path)
+        try:
+            expected = judge(mutant, path)
+        except OracleGaveUp:
+            expected = "undecided"
         problem = str(mutant.fixture.problem) if mutant.fixture.problem else None
         report = report_json(check(path, problem=problem, limits=limits))
     verdict = report["verdict"]

@@ -291,7 +291,10 @@ def mutants(fixture: Fixture) -> list[Mutant]:
             add("negation_removed", name, replaced(record, plugin.write(record, content=content.arguments[0])), UNSOUND)
         # the evidence: parents and bindings
         parents = parent_names(statement)
-        earlier = [n for n in names[:i] if n not in parents]
+        # not a step resting on this one (written earlier in a refutation-first file):
+        # that makes a cycle, which is reported where the cycle is first met
+        resting = _resting_on(children, name)
+        earlier = [n for n in names[:i] if n not in parents and n not in resting]
         for parent in parents:
             if earlier:
                 other = rng.choice(earlier)
@@ -331,6 +334,18 @@ def mutants(fixture: Fixture) -> list[Mutant]:
         # introduced symbols: reused, or (for a Skolem function) an argument missing
         found.extend(_introduction_mutants(fixture, plugin, records, i, problem, text, signature, rng, len(found)))
     found.extend(_open_assumption_mutants(fixture, plugin, records, text, len(found)))
+    return found
+
+
+def _resting_on(children: dict[str, list[str]], name: str) -> set[str]:
+    """The statements that cite ``name``, directly or through others."""
+    found: set[str] = set()
+    stack = list(children.get(name, ()))
+    while stack:
+        child = stack.pop()
+        if child not in found:
+            found.add(child)
+            stack.extend(children.get(child, ()))
     return found
 
 

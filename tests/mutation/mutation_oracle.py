@@ -231,10 +231,19 @@ def _free_variables(content) -> set[Term]:
     return free
 
 
+class OracleGaveUp(Exception):
+    """The SAT solver ran out of budget: neither a model nor its absence is known."""
+
+
+SAT_CONFLICTS = 200_000
+"""The SAT solver's budget per domain size: a few grounded mutants of the
+larger derivations otherwise keep it busy for many minutes."""
+
+
 def countermodel_size(premises: list, conclusion, sizes: tuple[int, ...] = SIZES) -> int | None:
     """The smallest domain size with a model of the premises that falsifies
     the conclusion, or None if there is none up to the largest size (or the
-    grounding grew too large)."""
+    grounding grew too large); OracleGaveUp when the solver's budget ran out."""
     for size in sizes:
         grounding = _Grounding(size)
         try:
@@ -245,7 +254,11 @@ def countermodel_size(premises: list, conclusion, sizes: tuple[int, ...] = SIZES
         except _TooLarge:
             return None
         with Solver(name="m22", bootstrap_with=grounding.clauses) as solver:
-            if solver.solve():
+            solver.conf_budget(SAT_CONFLICTS)
+            found = solver.solve_limited()
+            if found is None:
+                raise OracleGaveUp(f"no answer within {SAT_CONFLICTS} conflicts at domain size {size}")
+            if found:
                 return size
     return None
 
