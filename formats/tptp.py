@@ -703,8 +703,10 @@ _READINGS_KEPT = 100_000
 
 
 def _remembered(text: str, start: str, where: Location | None):
-    """Strings repeat in a certificate (a substitution's terms, variable
-    names), so each distinct one is read once.  Only readings that
+    """Term strings repeat in a certificate (a substitution's terms,
+    variable names), so each distinct one is read once.  (Clause and
+    formula strings rarely repeat: remembering them would keep the text of
+    every statement for the whole run.)  Only readings that
     succeeded are kept, under the input limits they were read with; the
     kernel objects they hold are forgotten with the file
     (:func:`forget_readings`, from checker/tables.py)."""
@@ -726,12 +728,12 @@ def forget_readings() -> None:
 
 def parse_clause(text: str, where: Location | None = None) -> Clause:
     """A clause written in TPTP cnf syntax, without the cnf(...) wrapper."""
-    return _remembered(text, "cnf_formula", where)
+    return _parse(text, "cnf_formula", *_string_origin(where))
 
 
 def parse_formula(text: str, where: Location | None = None) -> Formula:
     """A formula written in TPTP fof syntax, without the fof(...) wrapper."""
-    return _remembered(text, "fof_formula", where)
+    return _parse(text, "fof_formula", *_string_origin(where))
 
 
 def parse_term(text: str, where: Location | None = None) -> Term:
