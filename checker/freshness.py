@@ -8,7 +8,7 @@ for the whole derivation at once.
 
 from __future__ import annotations
 
-from collections.abc import Iterable
+from collections.abc import Collection, Iterable
 from dataclasses import dataclass, field
 
 from checker.kernel.clauses import Clause
@@ -186,31 +186,27 @@ def build_symbol_table(
             if child not in left_out:
                 left_out.add(child)
                 pending.append(child)
-    stated_symbols = {s.name: content_symbols(s.statement.content) for s in steps if s.statement is not None}
+    # tuples, not sets: a small set takes some 200 bytes, and there is one per statement
+    stated_symbols = {s.name: tuple(content_symbols(s.statement.content)) for s in steps if s.statement is not None}
     step_symbols = {name: found for name, found in stated_symbols.items() if name not in left_out}
-    # What each step inherits from its parents: a stated step hands on its
-    # own symbols, an unstated (nested) one what it inherited.  Steps come
-    # parents first.
-    inherited_by: dict[str, set[Symbol]] = {}
-    handed_on: dict[str, set[Symbol]] = {}
+    # What each step hands on to its children: a stated step its own
+    # symbols (the same set, not a copy), an unstated (nested) one what it
+    # inherited from its parents.  Steps come parents first.
+    handed_on: dict[str, Collection[Symbol]] = {}
     for s in steps:
-        inherited_by[s.name] = set().union(*(handed_on.get(p, set()) for p in s.parents))
-        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else inherited_by[s.name]
+        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else _inherited(s, handed_on)
     introducers: dict[Symbol, list[str]] = {}
     leaf_introducers: dict[Symbol, str] = {}
     implicit_citations: dict[str, list[str]] = {}
     for s in steps:
         if s.statement is not None and s.is_leaf and _is_introduction(s):
-            for symbol in new_symbols_of(s.statement.content):
+            for symbol in _introducible(stated_symbols[s.name]):
                 if symbol not in problem_symbols:  # not `- problem_symbols.keys()`: that walks every key
                     leaf_introducers.setdefault(symbol, s.name)
     for s in steps:
-        if s.statement is None:
+        if s.statement is None or (s.is_leaf and not _is_introduction(s)):
             continue
-        inherited = inherited_by[s.name]
-        if s.is_leaf and not _is_introduction(s):
-            continue
-        for symbol in new_symbols_of(s.statement.content) - inherited:
+        for symbol in _introducible(stated_symbols[s.name]) - _inherited(s, handed_on):
             if s.is_leaf or symbol not in leaf_introducers:
                 introducers.setdefault(symbol, []).append(s.name)
             else:
@@ -272,10 +268,20 @@ def _is_introduction(step: Step) -> bool:
     return getattr(source, "kind", None) == "introduced"
 
 
+def _inherited(step: Step, handed_on: dict[str, Collection[Symbol]]) -> set[Symbol]:
+    """The symbols a step's parents hand on to it (made when asked, so that
+    the table keeps no set per step)."""
+    return set().union(*(handed_on.get(parent, ()) for parent in step.parents))
+
+
+def _introducible(symbols: Iterable[Symbol]) -> set[Symbol]:
+    """Equality and TPTP's defined ``$`` symbols are interpreted, never introduced."""
+    return {s for s in symbols if s[0] != "=" and not s[0].startswith("$")}
+
+
 def new_symbols_of(content: Clause | Formula) -> set[Symbol]:
-    """The symbols a statement could introduce: equality and TPTP's defined
-    ``$`` symbols are interpreted, never introduced."""
-    return {s for s in content_symbols(content) if s[0] != "=" and not s[0].startswith("$")}
+    """The symbols a statement could introduce."""
+    return _introducible(content_symbols(content))
 
 
 def new_symbols(claimed: Clause | Formula, premises: Iterable[Clause | Formula]) -> set[Symbol]:
