@@ -186,8 +186,13 @@ def build_symbol_table(
             if child not in left_out:
                 left_out.add(child)
                 pending.append(child)
-    # tuples, not sets: a small set takes some 200 bytes, and there is one per statement
-    stated_symbols = {s.name: tuple(content_symbols(s.statement.content)) for s in steps if s.statement is not None}
+    # Tuples, not sets (a small set takes some 200 bytes, and there is one
+    # per statement), of one shared tuple per symbol.
+    shared: dict[Symbol, Symbol] = {}
+    stated_symbols = {
+        s.name: tuple(shared.setdefault(symbol, symbol) for symbol in content_symbols(s.statement.content))
+        for s in steps if s.statement is not None
+    }
     step_symbols = {name: found for name, found in stated_symbols.items() if name not in left_out}
     # What each step hands on to its children: a stated step its own
     # symbols (the same set, not a copy), an unstated (nested) one what it
@@ -226,7 +231,7 @@ def build_symbol_table(
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
-        {s.name: tuple(sorted(set(s.parents))) for s in steps},
+        {s.name: _sorted_once(s.parents) for s in steps},
         {s.name: s.statement.content for s in steps if s.statement is not None},
         leaf_introducers,
         implicit_citations,
@@ -266,6 +271,13 @@ def _polarities(problem: Document | None, steps: list[Step]) -> dict[Symbol, dic
 def _is_introduction(step: Step) -> bool:
     source = step.statement.source if step.statement else None
     return getattr(source, "kind", None) == "introduced"
+
+
+def _sorted_once(names: tuple[str, ...]) -> tuple[str, ...]:
+    """The names sorted, without repeats (the same tuple when it already is)."""
+    if all(first < second for first, second in zip(names, names[1:])):
+        return names
+    return tuple(sorted(set(names)))
 
 
 def _inherited(step: Step, handed_on: dict[str, Collection[Symbol]]) -> set[Symbol]:
