@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from collections.abc import Collection, Iterable
 from dataclasses import dataclass, field
+from itertools import pairwise
 
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import Formula, subformulas_with_polarity, symbols_of_formula
@@ -275,7 +276,7 @@ def _is_introduction(step: Step) -> bool:
 
 def _sorted_once(names: tuple[str, ...]) -> tuple[str, ...]:
     """The names sorted, without repeats (the same tuple when it already is)."""
-    if all(first < second for first, second in zip(names, names[1:])):
+    if all(first < second for first, second in pairwise(names)):
         return names
     return tuple(sorted(set(names)))
 

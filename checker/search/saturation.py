@@ -66,7 +66,7 @@ class _Signature:
     the signed predicates it could be resolved on, and whether it has a
     positive equation to paramodulate with."""
 
-    __slots__ = ("resolvable", "complements", "equational")
+    __slots__ = ("complements", "equational", "resolvable")
 
     def __init__(self, clause: Clause):
         self.resolvable = {(lit.positive, lit.atom.symbol, lit.atom.arity) for lit in clause.literals}
