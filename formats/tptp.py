@@ -51,7 +51,7 @@ from formats.derivation import (
 )
 from formats.limits import current_limits, too_deep_at
 from formats.tptp_plain import PlainReader
-from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
+from formats.tptp_scan import SkippedText, StatementText, excerpt, most_statements, scan
 from formats.tptp_types import (
     Call,
     Connect,
@@ -897,9 +897,10 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
 def _within_statement_limit(text: str, path: str) -> None:
     """Refuse, before parsing any, a file with more statements than the
     limit allows (each is at least 15 characters, so most files pass at
-    the cost of their length)."""
+    the cost of their length, most others at the cost of counting their
+    keywords)."""
     limit = current_limits().statements
-    if len(text) <= 15 * limit:
+    if len(text) <= 15 * limit or most_statements(text) <= limit:
         return
     count = 0
     for chunk in scan(text, path):
