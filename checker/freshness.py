@@ -195,12 +195,6 @@ def build_symbol_table(
         for s in steps if s.statement is not None
     }
     step_symbols = {name: found for name, found in stated_symbols.items() if name not in left_out}
-    # What each step hands on to its children: a stated step its own
-    # symbols (the same set, not a copy), an unstated (nested) one what it
-    # inherited from its parents.  Steps come parents first.
-    handed_on: dict[str, Collection[Symbol]] = {}
-    for s in steps:
-        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else _inherited(s, handed_on)
     introducers: dict[Symbol, list[str]] = {}
     leaf_introducers: dict[Symbol, str] = {}
     implicit_citations: dict[str, list[str]] = {}
@@ -209,10 +203,18 @@ def build_symbol_table(
             for symbol in _introducible(stated_symbols[s.name]):
                 if symbol not in problem_symbols:  # not `- problem_symbols.keys()`: that walks every key
                     leaf_introducers.setdefault(symbol, s.name)
+    # What each step hands on to its children: a stated step its own
+    # symbols (the same tuple, not a copy), an unstated (nested) one what it
+    # inherited from its parents.  Steps come parents first; a parent placed
+    # later (on a cycle) has handed nothing on yet when its child's turn comes.
+    handed_on: dict[str, Collection[Symbol]] = {}
     for s in steps:
-        if s.statement is None or (s.is_leaf and not _is_introduction(s)):
+        judged = s.statement is not None and (not s.is_leaf or _is_introduction(s))
+        inherited = _inherited(s, handed_on) if judged or s.statement is None else set()
+        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else inherited
+        if not judged:
             continue
-        for symbol in _introducible(stated_symbols[s.name]) - _inherited(s, handed_on):
+        for symbol in _introducible(stated_symbols[s.name]) - inherited:
             if s.is_leaf or symbol not in leaf_introducers:
                 introducers.setdefault(symbol, []).append(s.name)
             else:
