@@ -62,9 +62,10 @@ def _subsumes(general: Clause, specific: Clause, nodes: int) -> bool:
 
 
 class _Signature:
-    """What a stored clause offers to binary inferences, worked out once:
-    the signed predicates it could be resolved on, and whether it has a
-    positive equation to paramodulate with."""
+    """What a stored clause offers to binary inferences and subsumption,
+    worked out once: the heads (sign, predicate, arity) of its literals,
+    those it could be resolved against, and whether it has a positive
+    equation to paramodulate with."""
 
     __slots__ = ("complements", "equational", "resolvable")
 
@@ -146,7 +147,9 @@ def refute(
     while passive and given_count < max_given:
         _, given = heapq.heappop(passive)
         clause = store[given]
-        if any(_subsumes(store[other], clause, subsumption_nodes) for other in active):
+        heads = signatures[given].resolvable  # a clause with a head this one lacks cannot subsume it
+        if any(signatures[other].resolvable <= heads and _subsumes(store[other], clause, subsumption_nodes)
+               for other in active):
             continue
         given_count += 1
         active.append(given)
