@@ -21,6 +21,8 @@ def failures_rested_on(results: Sequence[StepResult], steps: Iterable[Step]) -> 
     """Per step, the failed or refuted step it rests on (through its
     parents, transitively): the one reached through its earliest parent.
     ``steps`` come parents first, as planned."""
+    if not any(result.outcome in (FAILED, REFUTED) for result in results):
+        return {}  # the usual case, without a table of every step
     outcome = {}
     for result in results:
         outcome.setdefault(result.name, result.outcome)  # a duplicate name is not the step
@@ -38,6 +40,8 @@ def mark_unfounded(results: Sequence[StepResult], steps: Iterable[Step]) -> list
     """The results with every sound-on-its-own step below a failure marked
     ``unfounded``."""
     rests_on = failures_rested_on(results, steps)
+    if not rests_on:
+        return list(results)
     outcome = {}
     for result in results:
         outcome.setdefault(result.name, result.outcome)

@@ -8,8 +8,9 @@ for the whole derivation at once.
 
 from __future__ import annotations
 
-from collections.abc import Iterable
+from collections.abc import Collection, Iterable
 from dataclasses import dataclass, field
+from itertools import pairwise
 
 from checker.kernel.clauses import Clause
 from checker.kernel.formulas import Formula, subformulas_with_polarity, symbols_of_formula
@@ -186,31 +187,34 @@ def build_symbol_table(
             if child not in left_out:
                 left_out.add(child)
                 pending.append(child)
-    stated_symbols = {s.name: content_symbols(s.statement.content) for s in steps if s.statement is not None}
+    # Tuples, not sets (a small set takes some 200 bytes, and there is one
+    # per statement), of one shared tuple per symbol.
+    shared: dict[Symbol, Symbol] = {}
+    stated_symbols = {
+        s.name: tuple(shared.setdefault(symbol, symbol) for symbol in content_symbols(s.statement.content))
+        for s in steps if s.statement is not None
+    }
     step_symbols = {name: found for name, found in stated_symbols.items() if name not in left_out}
-    # What each step inherits from its parents: a stated step hands on its
-    # own symbols, an unstated (nested) one what it inherited.  Steps come
-    # parents first.
-    inherited_by: dict[str, set[Symbol]] = {}
-    handed_on: dict[str, set[Symbol]] = {}
-    for s in steps:
-        inherited_by[s.name] = set().union(*(handed_on.get(p, set()) for p in s.parents))
-        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else inherited_by[s.name]
     introducers: dict[Symbol, list[str]] = {}
     leaf_introducers: dict[Symbol, str] = {}
     implicit_citations: dict[str, list[str]] = {}
     for s in steps:
         if s.statement is not None and s.is_leaf and _is_introduction(s):
-            for symbol in new_symbols_of(s.statement.content):
+            for symbol in _introducible(stated_symbols[s.name]):
                 if symbol not in problem_symbols:  # not `- problem_symbols.keys()`: that walks every key
                     leaf_introducers.setdefault(symbol, s.name)
+    # What each step hands on to its children: a stated step its own
+    # symbols (the same tuple, not a copy), an unstated (nested) one what it
+    # inherited from its parents.  Steps come parents first; a parent placed
+    # later (on a cycle) has handed nothing on yet when its child's turn comes.
+    handed_on: dict[str, Collection[Symbol]] = {}
     for s in steps:
-        if s.statement is None:
+        judged = s.statement is not None and (not s.is_leaf or _is_introduction(s))
+        inherited = _inherited(s, handed_on) if judged or s.statement is None else set()
+        handed_on[s.name] = stated_symbols[s.name] if s.statement is not None else inherited
+        if not judged:
             continue
-        inherited = inherited_by[s.name]
-        if s.is_leaf and not _is_introduction(s):
-            continue
-        for symbol in new_symbols_of(s.statement.content) - inherited:
+        for symbol in _introducible(stated_symbols[s.name]) - inherited:
             if s.is_leaf or symbol not in leaf_introducers:
                 introducers.setdefault(symbol, []).append(s.name)
             else:
@@ -230,7 +234,7 @@ def build_symbol_table(
         children,
         introducers,
         {s.name: number for number, s in enumerate(steps)},
-        {s.name: tuple(sorted(set(s.parents))) for s in steps},
+        {s.name: _sorted_once(s.parents) for s in steps},
         {s.name: s.statement.content for s in steps if s.statement is not None},
         leaf_introducers,
         implicit_citations,
@@ -272,10 +276,27 @@ def _is_introduction(step: Step) -> bool:
     return getattr(source, "kind", None) == "introduced"
 
 
+def _sorted_once(names: tuple[str, ...]) -> tuple[str, ...]:
+    """The names sorted, without repeats (the same tuple when it already is)."""
+    if all(first < second for first, second in pairwise(names)):
+        return names
+    return tuple(sorted(set(names)))
+
+
+def _inherited(step: Step, handed_on: dict[str, Collection[Symbol]]) -> set[Symbol]:
+    """The symbols a step's parents hand on to it (made when asked, so that
+    the table keeps no set per step)."""
+    return set().union(*(handed_on.get(parent, ()) for parent in step.parents))
+
+
+def _introducible(symbols: Iterable[Symbol]) -> set[Symbol]:
+    """Equality and TPTP's defined ``$`` symbols are interpreted, never introduced."""
+    return {s for s in symbols if s[0] != "=" and not s[0].startswith("$")}
+
+
 def new_symbols_of(content: Clause | Formula) -> set[Symbol]:
-    """The symbols a statement could introduce: equality and TPTP's defined
-    ``$`` symbols are interpreted, never introduced."""
-    return {s for s in content_symbols(content) if s[0] != "=" and not s[0].startswith("$")}
+    """The symbols a statement could introduce."""
+    return _introducible(content_symbols(content))
 
 
 def new_symbols(claimed: Clause | Formula, premises: Iterable[Clause | Formula]) -> set[Symbol]:

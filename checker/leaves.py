@@ -54,6 +54,8 @@ def same_content(problem_content: Clause | Formula, leaf_content: Clause | Formu
     clause): clauses by a kernel-checked theta(problem clause) ⊆ leaf
     clause, anything else by alpha-equivalence of universal closures."""
     if isinstance(problem_content, Clause) and isinstance(leaf_content, Clause):
+        if problem_content.literal_set <= leaf_content.literal_set:  # copied as it stands: no theta to search for
+            return check_conclusion(problem_content, leaf_content) is None
         theta = find_theta(problem_content, leaf_content)
         return theta is not None and check_conclusion(problem_content, leaf_content, theta) is None
     return alpha_equivalent(as_formula(problem_content), as_formula(leaf_content))

@@ -14,7 +14,7 @@ from checker.freshness import SymbolTable, content_symbols, describe_symbol
 from checker.kernel.clauses import Clause, Literal, is_equality
 from checker.kernel.formulas import FALSE, FALSUM, TRUE
 from checker.outcomes import NOT_NEEDED, TAUTOLOGY, UNUSED_LEAF, Introduction, Note
-from checker.plan import Plan
+from checker.plan import Plan, Step
 
 
 def _is_refutation(statement) -> bool:
@@ -24,10 +24,9 @@ def _is_refutation(statement) -> bool:
     )
 
 
-def _needed(plan: Plan) -> set[str] | None:
+def _needed(plan: Plan, by_name: dict[str, Step]) -> set[str] | None:
     """The steps some refutation (a stated `$false`) rests on; None when
     the derivation reaches none (a failure of its own, not a note)."""
-    by_name = {step.name: step for step in plan.steps}
     stack = [s.name for s in plan.steps if s.statement is not None and _is_refutation(s.statement)]
     if not stack:
         return None
@@ -55,11 +54,12 @@ def tautology_witness(clause: Clause) -> str | None:
     return None
 
 
-def notes_on(plan: Plan) -> tuple[Note, ...]:
+def notes_on(plan: Plan, symbols: SymbolTable) -> tuple[Note, ...]:
     """Unused leaves, steps the refutation does not need and tautological
-    clauses, in checking order."""
-    used = {parent for step in plan.steps for parent in step.parents}
-    needed = _needed(plan)
+    clauses, in checking order.  The plan's symbol table already has every
+    step by name and every cited name (as a parent with children)."""
+    used = symbols.children
+    needed = _needed(plan, symbols.planned)
     notes = []
     for step in plan.steps:
         statement = step.statement

@@ -10,6 +10,7 @@ first, keeping the written order wherever it already does so.
 
 from __future__ import annotations
 
+import functools
 import heapq
 import os
 from dataclasses import dataclass, replace
@@ -94,11 +95,18 @@ def _unfold(statement: Statement, taken: set[str]) -> list[Step]:
                 statement if is_outer else None,
                 inference,
                 tuple(parent_names),
-                tuple(bindings),
+                _no_bindings(len(bindings)) if not any(b is not None for b in bindings) else tuple(bindings),
                 statement.location,
             )
         )
     return steps
+
+
+@functools.cache
+def _no_bindings(count: int) -> tuple[None, ...]:
+    """One shared tuple per number of parents for the (usual) steps that
+    state no bindings, rather than one per step."""
+    return (None,) * count
 
 
 def with_cited_problem_statements(document: Document, problem: Document | None) -> Document:

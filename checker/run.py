@@ -270,7 +270,7 @@ def _check(
     return Report(
         path, verdict, tuple(results), document.notices, problem_path, cautions=tuple(cautions),
         files=document.files + (problem.files if problem else ()),
-        notes=notes_on(plan), introduced=introduced_symbols(context.symbols),
+        notes=notes_on(plan, context.symbols), introduced=introduced_symbols(context.symbols),
     )
 
 

@@ -22,8 +22,10 @@ from __future__ import annotations
 
 import dataclasses
 import functools
+import itertools
 import json
 import re
+import sys
 from collections.abc import Collection, Iterator, Mapping
 from dataclasses import dataclass
 from typing import NoReturn, TextIO
@@ -262,7 +264,7 @@ def _comment(record: _Record, value: object, field: str) -> str:
 def _choice(record: _Record, value: object, field: str, allowed: Collection[str], what: str) -> str:
     if not isinstance(value, str) or value not in allowed:
         record.fail(f"field '{field}' must be {what}, not {json.dumps(value)}")
-    return value
+    return sys.intern(value)  # one string object for the run, not one per record
 
 
 def _header(record: _Record, value: object) -> NativeHeader:
@@ -381,7 +383,7 @@ def _parents(record: _Record, value: object, version: int = 1, field: str = "inf
     if version == 1:
         if not isinstance(value, list) or not all(isinstance(name, str) and name for name in value):
             record.fail(f"field '{field}' must be a list of names")
-        return tuple(Parent(name) for name in value)
+        return tuple(Parent(sys.intern(name)) for name in value)
     if not isinstance(value, list):
         record.fail(f"field '{field}' must be a list of names and nested inferences")
     built: list[list] = [[]]
@@ -396,7 +398,7 @@ def _parents(record: _Record, value: object, version: int = 1, field: str = "inf
                 built[-1].append(Inference(nested[0], nested[1], parents))
             continue
         if isinstance(entry, str) and entry:
-            built[-1].append(Parent(entry))
+            built[-1].append(Parent(sys.intern(entry)))
             continue
         inner = _object(record, entry, where + "[]")
         _check_fields(record, inner, where + "[].", ("rule", "parents"), ("status",))
@@ -413,7 +415,7 @@ def _inference(record: _Record, value: object, language: str, version: int = 1) 
     value = _object(record, value, "inference")
     if "rule" not in value:
         record.fail("missing field 'inference.rule'")
-    rule = _text(record, value["rule"], "inference.rule")
+    rule = sys.intern(_text(record, value["rule"], "inference.rule"))
     if rule in EVIDENCE_RULES and language != "cnf":
         record.fail(f"rule '{rule}' works on clauses: field 'language' must be \"cnf\"")
     where = "inference."
@@ -452,7 +454,7 @@ def _origin(record: _Record, value: object) -> Origin:
     detail = value.get("detail", [])
     if not isinstance(detail, list) or not all(isinstance(part, str) for part in detail):
         record.fail("field 'origin.detail' must be a list of strings")
-    return Origin(kind, tuple(detail))
+    return Origin(kind, tuple(map(sys.intern, detail)))
 
 
 def _statement(record: _Record, value: object, version: int = 1) -> Statement:
@@ -461,7 +463,7 @@ def _statement(record: _Record, value: object, version: int = 1) -> Statement:
     if VERSION_FIELD in value:
         record.fail("a second header record: the header must be the first record and appear once")
     _check_fields(record, value, "", STATEMENT_REQUIRED, STATEMENT_OPTIONAL if version == 1 else STATEMENT_OPTIONAL_V2)
-    name = _text(record, value["name"], "name")
+    name = sys.intern(_text(record, value["name"], "name"))  # the same object as its children's parent names
     limits = current_limits()
     if len(name) > limits.name_length:
         record.fail(f"a name of {len(name)} characters; {limits.describe('name_length')}", record.column_of_value("name"))
@@ -596,11 +598,18 @@ def _clause(record: _Record, text: object, field: str) -> Clause:
 
 
 def _records(text: str, path: str) -> Iterator[_Record]:
-    """The non-blank lines of the text, numbered from 1."""
-    for number, line in enumerate(text.split("\n"), start=1):
+    """The non-blank lines of the text, numbered from 1 (cut one at a
+    time: a list of them all would double the text in memory)."""
+    start = 0
+    for number in itertools.count(1):
+        end = text.find("\n", start)
+        line = text[start:] if end < 0 else text[start:end]
         line = line.removesuffix("\r")
         if line.strip():
             yield _Record(path, number, line)
+        if end < 0:
+            return
+        start = end + 1
 
 
 def _header_and_records(text: str, path: str) -> tuple[NativeHeader, Iterator[_Record]]:

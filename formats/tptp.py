@@ -51,7 +51,7 @@ from formats.derivation import (
 )
 from formats.limits import current_limits, too_deep_at
 from formats.tptp_plain import PlainReader
-from formats.tptp_scan import SkippedText, StatementText, excerpt, scan
+from formats.tptp_scan import SkippedText, StatementText, excerpt, most_statements, scan
 from formats.tptp_types import (
     Call,
     Connect,
@@ -703,8 +703,10 @@ _READINGS_KEPT = 100_000
 
 
 def _remembered(text: str, start: str, where: Location | None):
-    """Strings repeat in a certificate (a substitution's terms, variable
-    names), so each distinct one is read once.  Only readings that
+    """Term strings repeat in a certificate (a substitution's terms,
+    variable names), so each distinct one is read once.  (Clause and
+    formula strings rarely repeat: remembering them would keep the text of
+    every statement for the whole run.)  Only readings that
     succeeded are kept, under the input limits they were read with; the
     kernel objects they hold are forgotten with the file
     (:func:`forget_readings`, from checker/tables.py)."""
@@ -726,12 +728,12 @@ def forget_readings() -> None:
 
 def parse_clause(text: str, where: Location | None = None) -> Clause:
     """A clause written in TPTP cnf syntax, without the cnf(...) wrapper."""
-    return _remembered(text, "cnf_formula", where)
+    return _parse(text, "cnf_formula", *_string_origin(where))
 
 
 def parse_formula(text: str, where: Location | None = None) -> Formula:
     """A formula written in TPTP fof syntax, without the fof(...) wrapper."""
-    return _remembered(text, "fof_formula", where)
+    return _parse(text, "fof_formula", *_string_origin(where))
 
 
 def parse_term(text: str, where: Location | None = None) -> Term:
@@ -895,9 +897,10 @@ def _read(text: str, path: str, include_dirs: Sequence[str], identity: str | Non
 def _within_statement_limit(text: str, path: str) -> None:
     """Refuse, before parsing any, a file with more statements than the
     limit allows (each is at least 15 characters, so most files pass at
-    the cost of their length)."""
+    the cost of their length, most others at the cost of counting their
+    keywords)."""
     limit = current_limits().statements
-    if len(text) <= 15 * limit:
+    if len(text) <= 15 * limit or most_statements(text) <= limit:
         return
     count = 0
     for chunk in scan(text, path):

@@ -28,6 +28,7 @@ ones are left to the grammar).
 from __future__ import annotations
 
 import re
+import sys
 from collections.abc import Callable, Collection
 
 from checker.kernel.clauses import EQUALITY, Clause, Literal
@@ -71,7 +72,9 @@ def _tokens(text: str) -> list[str | None] | None:
     is no token here or some word is longer than the name-length limit."""
     if _ONLY_TOKENS.fullmatch(text) is None:
         return None
-    tokens: list[str | None] = _TOKEN.findall(text)
+    # Interned: a word kept in a term, a name or a role is then one object
+    # for the run, not one per statement it appears in.
+    tokens: list[str | None] = list(map(sys.intern, _TOKEN.findall(text)))
     limit = current_limits().name_length
     if len(text) > limit and max(map(len, tokens), default=0) > limit:
         return None

@@ -182,6 +182,8 @@ def resolvents(
     literals, with the mgu; with ``with_factoring``, with unifiers that also
     merge further literals of one parent into the resolved one."""
     left, right = premises[left_index], premises[right_index]
+    if not _clashing(left, right):
+        return  # no pair of literals to resolve on: renaming apart would be wasted
     copy, renaming = rename_apart(right, left.variables())
     left_variables, right_variables = left.variables(), right.variables()
     kind = "resolution_factoring" if with_factoring else "resolution"
@@ -201,6 +203,14 @@ def resolvents(
                     found = _attempt(premises, kind, Resolution(left_index, i, right_index, j, left_sub, right_sub))
                     if found is not None:
                         yield found
+
+
+def _clashing(left: Clause, right: Clause) -> bool:
+    """Whether some literal of ``left`` and some literal of ``right`` have
+    opposite signs and the same predicate symbol and arity (the only pairs
+    :func:`resolvents` tries)."""
+    signed = {(literal.positive, literal.atom.symbol, literal.atom.arity) for literal in left.literals}
+    return any((not literal.positive, literal.atom.symbol, literal.atom.arity) in signed for literal in right.literals)
 
 
 def paramodulants(premises: Sequence[Clause], equation_index: int, target_index: int) -> Iterator[Attempt]:

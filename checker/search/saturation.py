@@ -61,14 +61,35 @@ def _subsumes(general: Clause, specific: Clause, nodes: int) -> bool:
     return len(general.literal_set) <= len(specific.literal_set) and find_theta(general, specific, nodes) is not None
 
 
-def _inferences(store: list[Clause], given: int, active: list[int]) -> Iterator[Attempt]:
+class _Signature:
+    """What a stored clause offers to binary inferences and subsumption,
+    worked out once: the heads (sign, predicate, arity) of its literals,
+    those it could be resolved against, and whether it has a positive
+    equation to paramodulate with."""
+
+    __slots__ = ("complements", "equational", "resolvable")
+
+    def __init__(self, clause: Clause):
+        self.resolvable = {(lit.positive, lit.atom.symbol, lit.atom.arity) for lit in clause.literals}
+        self.complements = {(not positive, symbol, arity) for positive, symbol, arity in self.resolvable}
+        self.equational = any(lit.positive and is_equality(lit.atom) for lit in clause.literals)
+
+
+def _inferences(store: list[Clause], given: int, active: list[int], signatures: list[_Signature]) -> Iterator[Attempt]:
+    """Every inference of the given clause alone and with each active one;
+    pairs with no complementary predicates (no resolvent) or no equation
+    (no paramodulant) are passed over without asking the generators."""
     yield from equality_resolvents(store, given)
     yield from factors(store, given)
     yield from equality_factors(store, given)
+    mine = signatures[given]
     for other in active:
-        yield from resolvents(store, other, given)
-        yield from paramodulants(store, other, given)
-        if other != given:
+        theirs = signatures[other]
+        if not mine.complements.isdisjoint(theirs.resolvable):
+            yield from resolvents(store, other, given)
+        if theirs.equational:
+            yield from paramodulants(store, other, given)
+        if other != given and mine.equational:
             yield from paramodulants(store, given, other)
 
 
@@ -117,6 +138,7 @@ def refute(
     max_weight = 2 * heaviest + WEIGHT_MARGIN
     heapq.heapify(passive)
     seen = {clause.literal_set for clause in store}
+    signatures = [_Signature(clause) for clause in store]
     active: list[int] = []
     if support is not None:
         supported = set(support)
@@ -125,17 +147,20 @@ def refute(
     while passive and given_count < max_given:
         _, given = heapq.heappop(passive)
         clause = store[given]
-        if any(_subsumes(store[other], clause, subsumption_nodes) for other in active):
+        heads = signatures[given].resolvable  # a clause with a head this one lacks cannot subsume it
+        if any(signatures[other].resolvable <= heads and _subsumes(store[other], clause, subsumption_nodes)
+               for other in active):
             continue
         given_count += 1
         active.append(given)
-        for attempt in _inferences(store, given, active):
+        for attempt in _inferences(store, given, active, signatures):
             computed = attempt.computed
             weight = _weight(computed)
             if weight > max_weight or computed.literal_set in seen or is_tautology(computed):
                 continue
             seen.add(computed.literal_set)
             store.append(computed)
+            signatures.append(_Signature(computed))
             evidence_of[len(store) - 1] = attempt.evidence
             if computed.is_empty:
                 return _extract(evidence_of, initial, len(store) - 1)

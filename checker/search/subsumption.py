@@ -18,11 +18,26 @@ from checker.search.unify import match_atoms_into
 DEFAULT_NODES = 2000
 
 
-def _candidates(literal: Literal, claimed: Clause, bindings: dict[Term, Term]) -> list[dict[Term, Term]]:
-    found: list[dict[Term, Term]] = []
+Head = tuple[bool, str, int]
+"""A literal's sign, predicate symbol and arity: only literals with the same
+head can match."""
+
+
+def _by_head(claimed: Clause) -> dict[Head, list[Literal]]:
+    """The claimed clause's distinct literals, in written order, by head
+    (grouped once per search rather than scanned for every literal)."""
+    groups: dict[Head, list[Literal]] = {}
     for target in dict.fromkeys(claimed.literals):
-        if target.positive == literal.positive:
-            found.extend(match_atoms_into(literal.atom, target.atom, bindings))
+        groups.setdefault((target.positive, target.atom.symbol, target.atom.arity), []).append(target)
+    return groups
+
+
+def _candidates(
+    literal: Literal, targets: dict[Head, list[Literal]], bindings: dict[Term, Term]
+) -> list[dict[Term, Term]]:
+    found: list[dict[Term, Term]] = []
+    for target in targets.get((literal.positive, literal.atom.symbol, literal.atom.arity), ()):
+        found.extend(match_atoms_into(literal.atom, target.atom, bindings))
     return found
 
 
@@ -52,10 +67,11 @@ def find_theta_into(
 ) -> dict[Term, Term] | None:
     """:func:`find_theta` on working bindings that keep identity entries."""
     pending = list(dict.fromkeys(computed.literals))  # written order: reproducible results
+    targets = _by_head(claimed)
     # Most constrained first: a literal with few possible images prunes early.
     counted = []
     for literal in pending:
-        options = _candidates(literal, claimed, start)
+        options = _candidates(literal, targets, start)
         if not options:
             return None
         counted.append((len(options), literal))
@@ -69,7 +85,7 @@ def find_theta_into(
     while True:
         if depth == len(order):
             return bindings
-        options = _candidates(order[depth], claimed, bindings)
+        options = _candidates(order[depth], targets, bindings)
         attempts += 1
         if attempts > limit:
             return None

@@ -15,14 +15,14 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from checker.kernel.clauses import Clause
-from checker.kernel.formulas import Formula, formula_of_clause, universal_closure
-from checker.kernel.unfolding import Unfolding, check_unfolding, equivalence_definition
+from checker.kernel.formulas import Formula, alpha_equivalent, formula_of_clause, universal_closure
+from checker.kernel.unfolding import Definitions, Unfolding, check_unfolding, equivalence_definition, unfolded
 
 
 def find_unfolding(premises: Sequence[Clause | Formula], conclusion: Clause | Formula) -> Unfolding | None:
     """An unfolding the kernel accepts, or None.  Premises that are not
     definitions are tried first as the one unfolded."""
-    closed = [formula_of_clause(p) if isinstance(p, Clause) else universal_closure(p) for p in premises]
+    closed = [_closed(p) for p in premises]
     parts = [equivalence_definition(formula) for formula in closed]
     defining: dict[tuple[str, int], int] = {}
     for index, found in enumerate(parts):
@@ -31,9 +31,26 @@ def find_unfolding(premises: Sequence[Clause | Formula], conclusion: Clause | Fo
     definitions = tuple(sorted(defining.values()))
     if not definitions:
         return None
+    # The kernel's comparison, made here first (the conclusion unfolded
+    # once, not once per premise): only a premise that passes is put to it.
+    meanings = {key: (parts[index][0].atom.arguments, parts[index][1]) for key, index in defining.items()}
+    passes = len(definitions)
+    target = _unfolded(_closed(conclusion), meanings, passes)
     order = sorted(range(len(premises)), key=lambda index: parts[index] is not None)
     for premise in order:
-        unfolding = Unfolding(premise, definitions, len(definitions))
+        if not alpha_equivalent(_unfolded(closed[premise], meanings, passes), target):
+            continue
+        unfolding = Unfolding(premise, definitions, passes)
         if check_unfolding(premises, conclusion, unfolding) is None:
             return unfolding
     return None
+
+
+def _closed(statement: Clause | Formula) -> Formula:
+    return formula_of_clause(statement) if isinstance(statement, Clause) else universal_closure(statement)
+
+
+def _unfolded(formula: Formula, meanings: Definitions, passes: int) -> Formula:
+    for _ in range(passes):
+        formula = unfolded(formula, meanings)
+    return formula

@@ -45,6 +45,24 @@ def test_a_stronger_clause_is_not_in_the_problem(tmp_path):
     assert "not in the problem" in leaf.message and "~berth(S,D) | moored(S)" in leaf.message
 
 
+def test_a_copied_clause_with_a_sign_changed_or_a_literal_left_out_is_not_the_axiom(tmp_path):
+    # Attacks on the quickest link, a leaf whose literals include the
+    # problem clause's as they stand: the same atoms with one sign changed,
+    # and the problem clause with one literal left out, link to nothing.
+    report = run(
+        tmp_path,
+        """
+        cnf(l1, axiom, ~ berth(tanker3, dock2) | moored(barge1), file('problem.p', tanker_berth)).
+        cnf(l2, axiom, berth(S, D) | moored(S), file('problem.p', dock_rule)).
+        cnf(l3, axiom, ~ berth(S, D), file('problem.p', dock_rule)).
+        """,
+    )
+    steps = outcomes(report)
+    for name in ("l1", "l2", "l3"):
+        assert steps[name].outcome == FAILED, name
+        assert "reason: not_in_problem" in steps[name].details, name
+
+
 def test_the_conjecture_cannot_be_used_as_an_axiom(tmp_path):
     report = run(tmp_path, "fof(l1, axiom, moored(tanker3), file('problem.p', goal)).\n")
     leaf = outcomes(report)["l1"]
