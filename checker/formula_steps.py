@@ -262,10 +262,10 @@ def _introduction(
     only if it refutes every pairing there is.
 
     Symbols ``used`` are new to the premises but taken as ordinary symbols
-    of the claim, witnessing nothing.  When some new symbols are not fresh
-    (a clause weakened by a literal over a problem symbol) and the others
-    are, the step holds if it follows with the fresh ones as witnesses and
-    the rest as they are: that entailment is over every meaning of the
+    of the claim, witnessing nothing.  When some or all new symbols are not
+    fresh (a clause weakened by a literal over a problem symbol), the step
+    holds if it follows with the fresh ones, if any, as witnesses and the
+    rest as they are: that entailment is over every meaning of the
     stale symbols, so nothing about them is assumed.  Otherwise the symbol
     that is not fresh is the fault reported."""
     conclusion = as_formula(claims[0])
@@ -291,7 +291,7 @@ def _introduction(
     not_fresh = table.freshness_failure(step.name, new, peers)
     if not_fresh:
         stale = frozenset(s for s in new if table.freshness_failure(step.name, [s], peers))
-        if not used and not step.is_leaf and stale != new:
+        if not used and not step.is_leaf:
             found = _introduction(step, premises, claims, raw_premises, peers, table, limits, stale)
             if found.outcome == RECONSTRUCTED:
                 named = ", ".join(describe_symbol(s) for s in sorted(stale))

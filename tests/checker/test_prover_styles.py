@@ -805,3 +805,44 @@ def test_a_later_clause_with_both_witnesses_is_checked_with_the_first(tmp_path):
     )
     _rejected_at(report, steps, "f14", "countermodel")
     assert steps["f13"].outcome not in (FAILED, REFUTED)
+
+
+# A clause weakened by a literal over a symbol its parents lack follows
+# from them whatever that symbol means (C entails C | L: common practice),
+# so it needs no freshness and witnesses nothing.  Found by the mutation
+# run (`added_literal`, a sound change by construction).
+
+def test_a_clause_weakened_by_a_problem_symbol_is_a_plain_consequence(tmp_path):
+    report, steps = _mutant(
+        tmp_path, "inverse_links_printed_quoted_rules",
+        "(~ holds(inverse(X0), X1, X2) | holds(X0, X2, X1)), inference('cnf'",
+        "(~ holds(inverse(X0), X1, X2) | holds(X0, X2, X1) | ~ symmetric(X0)), inference('cnf'",
+    )
+    assert steps["zip_derived_cl3"].outcome not in (FAILED, REFUTED, UNPROVEN)
+    assert "witnessing nothing" in steps["zip_derived_cl3"].message
+    # The weaker clause no longer gives the superposition its claim.
+    _rejected_at(report, steps, "zip_derived_cl9", "countermodel")
+
+
+def test_a_clause_with_a_problem_symbol_that_does_not_follow_is_not_fresh(tmp_path):
+    # Attack: the extra literal replaces one the parent gives, so the clause
+    # is no weakening; `symmetric` is the problem's, so it witnesses nothing.
+    report, steps = _mutant(
+        tmp_path, "inverse_links_printed_quoted_rules",
+        "(~ holds(inverse(X0), X1, X2) | holds(X0, X2, X1)), inference('cnf'",
+        "(~ holds(inverse(X0), X1, X2) | symmetric(X0)), inference('cnf'",
+    )
+    _rejected_at(report, steps, "zip_derived_cl3", "not_fresh")
+
+
+def test_a_clause_with_a_witness_of_a_universal_is_still_refused(tmp_path):
+    # Attack: `! [Z] : ~ assigned(night_guard, Z)` has no existential to
+    # witness, and the clause with its sign turned does not follow (a model
+    # where the night guard is assigned nowhere), so the new symbol can
+    # neither witness anything nor be a mere weakening.
+    report, steps = _mutant(
+        tmp_path, "guard_doors_printed_inner_witness_alone",
+        "(~ assigned(night_guard, X0)), inference('cnf'",
+        "(assigned(night_guard, sk__9)), inference('cnf'",
+    )
+    _rejected_at(report, steps, "zip_derived_cl0", "wrong_polarity")

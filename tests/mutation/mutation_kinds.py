@@ -254,6 +254,7 @@ def mutants(fixture: Fixture) -> list[Mutant]:
         return text[: record.start] + before + new_record + text[record.end :]
 
     names = [r.statement.name for r in records]
+    problem_symbols = set().union(*(symbols(s.content) for s in problem))
     children: dict[str, list[str]] = {}
     for r in records:
         for parent in parent_names(r.statement):
@@ -270,7 +271,11 @@ def mutants(fixture: Fixture) -> list[Mutant]:
             for kind, changed in edits:
                 # A weaker claim is sound, but a leaf must be the problem's statement and a
                 # negated conjecture exactly the conjecture's negation: those stay undecided.
-                weakening = kind == "added_literal" and not is_leaf(statement) and statement.role != "negated_conjecture"
+                # A literal bringing a symbol the derivation introduces elsewhere makes the
+                # step an introduction of it, refused when it witnesses nothing: not judged.
+                weakening = (kind == "added_literal" and not is_leaf(statement)
+                             and statement.role != "negated_conjecture"
+                             and symbols(changed) <= symbols(content) | problem_symbols)
                 add(kind, name, replaced(record, plugin.write(record, content=changed)), SOUND if weakening else JUDGED)
             for changed in symbol_swaps(content, signature, rng):
                 add("symbol_swap", name, replaced(record, plugin.write(record, content=changed)), JUDGED)
